@@ -1,0 +1,31 @@
+#!/usr/bin/env bash
+# Lotwise's one entry point for `npm start`, `npm run dev`, `npm test` and `npm run bench` on a fresh machine:
+# installs what is missing (npm packages, Debian's MariaDB, and Chromium for the browser tests), then hands over
+# to scripts/stack.ts, which starts and stops everything else.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+mode="${1:-start}"
+
+if [ ! -x node_modules/.bin/tsx ] || [ package-lock.json -nt node_modules/.package-lock.json ]; then
+  echo "lotwise: installing npm packages (npm ci)"
+  npm ci --no-audit --no-fund
+fi
+
+if [ "$mode" = "bench" ]; then
+  exec node_modules/.bin/tsx scripts/bench.ts
+fi
+
+missing=()
+command -v mariadbd >/dev/null 2>&1 || [ -x /usr/sbin/mariadbd ] || missing+=(mariadb-server)
+if [ "$mode" = "test" ] && [ ! -x /usr/bin/chromium ]; then missing+=(chromium); fi
+if [ "${#missing[@]}" -gt 0 ]; then
+  if [ "$(id -u)" -ne 0 ]; then
+    echo "lotwise: ${missing[*]} missing; install with: sudo apt-get install -y ${missing[*]}" >&2
+    exit 1
+  fi
+  echo "lotwise: installing ${missing[*]} from Debian (apt-get)"
+  apt-get update -qq
+  DEBIAN_FRONTEND=noninteractive apt-get install -y -qq --no-install-recommends "${missing[@]}" >/dev/null
+fi
+
+exec node_modules/.bin/tsx scripts/stack.ts "$@"

@@ -1,0 +1,16 @@
+import type { DataSource } from "typeorm";
+import type { SessionService } from "./auth/sessions";
+import type { SignInLimiter } from "./auth/sign-in-limiter";
+import type { ServerConfig } from "./config/env";
+import type { Logger } from "./logger";
+import type { Mailer } from "./mail/mailer";
+
+/** What every route and service may use; built once per server (and once per test database). */
+export interface AppContext {
+  config: ServerConfig;
+  dataSource: DataSource;
+  sessions: SessionService;
+  mailer: Mailer;
+  limiter: SignInLimiter;
+  log: Logger;
+}

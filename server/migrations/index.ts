@@ -1,0 +1,4 @@
+import { Foundation1764633600000 } from "./1764633600000-foundation";
+
+/** Every migration in order. Listed by hand so tsx, vitest and the CLI load the same classes (no glob imports). */
+export const migrations = [Foundation1764633600000];

@@ -1,0 +1,219 @@
+/**
+ * Mergeable aggregates of Monte Carlo trials: everything a run reports, with no per-trial data
+ * beyond the bounded sensitivity sample. Every field merges exactly and order-independently:
+ * integer counts, exact-sum partials (stats/exact-sum.ts), min/max, the first K failing trial
+ * indices, and sample segments keyed by trial index. Hence one seed gives bit-identical results
+ * for one chunk or many, one worker or several.
+ */
+import { EngineError } from "./errors";
+import type { RunPlan } from "./run-plan";
+import type { RunSeed } from "./random";
+import { exactSumMerge, type ExactSum } from "./stats/exact-sum";
+import { addCounts, type HistogramEdges } from "./stats/histogram";
+
+/** Facts about the run shared by every chunk (from the plan), needed to finalize. */
+export interface AggregateMeta {
+  seed: RunSeed;
+  trialCap: number;
+  corners: number[];
+  partRefs: string[];
+  rules: { metric: string; label?: string; from: number; to: number; min?: number; max?: number; unit: "dB" | "ns" }[];
+  freqs: number[];
+  pairs: string[];
+  nominalMargins: number[];
+  marginEdges: HistogramEdges[];
+  nominalDb: number[];
+  envelopeBins: number;
+  envelopeBinDb: number;
+  envelopeSpanDb: number;
+  sensitivitySampleSize: number;
+  failingTrialCount: number;
+}
+
+/** A contiguous run of trials kept for the sensitivity analysis. */
+export interface SampleSegment {
+  /** first trial index */
+  start: number;
+  count: number;
+  /** relative deviation of each part, index t·P + p */
+  deviations: Float64Array;
+  /** worst margin of each rule, index t·R + r */
+  margins: Float64Array;
+}
+
+/** Aggregate of any set of trials of one run. */
+export interface TrialAggregate {
+  meta: AggregateMeta;
+  /** trials counted */
+  trials: number;
+  passed: number;
+  /** covered trial index ranges [start, end), sorted and disjoint */
+  ranges: [number, number][];
+  ruleFailures: number[];
+  marginSum: ExactSum[];
+  marginSumSq: ExactSum[];
+  marginMin: number[];
+  marginMax: number[];
+  /** per rule (bins + 2) counts: [underflow, bins…, overflow] */
+  marginCounts: Float64Array;
+  /** per pair, per grid point (envelopeBins + 2) counts */
+  envelopeCounts: Uint32Array;
+  /** first failing trial indices, ascending, at most failingTrialCount */
+  failing: number[];
+  sample: SampleSegment[];
+}
+
+/** An empty aggregate for a plan. */
+export function createAggregate(plan: RunPlan): TrialAggregate {
+  const R = plan.rules.length;
+  const bins = plan.options.histogramBins;
+  return {
+    meta: metaOf(plan),
+    trials: 0,
+    passed: 0,
+    ranges: [],
+    ruleFailures: new Array(R).fill(0),
+    marginSum: Array.from({ length: R }, () => []),
+    marginSumSq: Array.from({ length: R }, () => []),
+    marginMin: new Array(R).fill(Infinity),
+    marginMax: new Array(R).fill(-Infinity),
+    marginCounts: new Float64Array(R * (bins + 2)),
+    envelopeCounts: new Uint32Array(plan.pairs.length * plan.grid.freqs.length * (plan.envelopeBins + 2)),
+    failing: [],
+    sample: [],
+  };
+}
+
+/**
+ * Merges b into a copy of a (neither input is changed). Exact and order-independent.
+ * @throws EngineError INVALID_INPUT when the aggregates belong to different runs or overlap
+ */
+export function mergeAggregates(a: TrialAggregate, b: TrialAggregate): TrialAggregate {
+  if (!sameRun(a.meta, b.meta)) throw new EngineError("INVALID_INPUT", "cannot merge aggregates of different runs", { path: "aggregate.meta" });
+  const ranges = mergeRanges(a.ranges, b.ranges);
+  const R = a.ruleFailures.length;
+  const marginCounts = a.marginCounts.slice();
+  addCounts(marginCounts, b.marginCounts);
+  const envelopeCounts = a.envelopeCounts.slice();
+  addCounts(envelopeCounts, b.envelopeCounts);
+  const failing = Array.from(new Set([...a.failing, ...b.failing])).sort((x, y) => x - y).slice(0, a.meta.failingTrialCount);
+  return {
+    meta: a.meta,
+    trials: a.trials + b.trials,
+    passed: a.passed + b.passed,
+    ranges,
+    ruleFailures: a.ruleFailures.map((v, r) => v + b.ruleFailures[r]),
+    marginSum: Array.from({ length: R }, (_, r) => exactSumMerge(a.marginSum[r].slice(), b.marginSum[r])),
+    marginSumSq: Array.from({ length: R }, (_, r) => exactSumMerge(a.marginSumSq[r].slice(), b.marginSumSq[r])),
+    marginMin: a.marginMin.map((v, r) => Math.min(v, b.marginMin[r])),
+    marginMax: a.marginMax.map((v, r) => Math.max(v, b.marginMax[r])),
+    marginCounts,
+    envelopeCounts,
+    failing,
+    sample: [...a.sample, ...b.sample].sort((x, y) => x.start - y.start),
+  };
+}
+
+/**
+ * Packs an aggregate into one byte buffer, so a worker can hand it over with a single transfer
+ * (piscina moves only a top-level transferable). Layout: "LWA1", u32 JSON length, JSON of the plain
+ * fields, padding to 8, then marginCounts (f64), sample arrays (f64), envelopeCounts (u32).
+ */
+export function encodeAggregate(agg: TrialAggregate): Uint8Array {
+  const { marginCounts, envelopeCounts, sample, ...plain } = agg;
+  const header = { ...plain, marginCountsLength: marginCounts.length, envelopeLength: envelopeCounts.length, sample: sample.map((s) => ({ start: s.start, count: s.count, dl: s.deviations.length, ml: s.margins.length })) };
+  const json = new TextEncoder().encode(JSON.stringify(header, (_, v) => (v === Infinity ? "+inf" : v === -Infinity ? "-inf" : v)));
+  const jsonEnd = 8 + json.length;
+  const f64Start = Math.ceil(jsonEnd / 8) * 8;
+  const f64Count = marginCounts.length + sample.reduce((n, s) => n + s.deviations.length + s.margins.length, 0);
+  const u32Start = f64Start + f64Count * 8;
+  const bytes = new Uint8Array(u32Start + envelopeCounts.length * 4);
+  const view = new DataView(bytes.buffer);
+  bytes.set([76, 87, 65, 49], 0); // "LWA1"
+  view.setUint32(4, json.length, true);
+  bytes.set(json, 8);
+  const f64 = new Float64Array(bytes.buffer, f64Start, f64Count);
+  let o = 0;
+  f64.set(marginCounts, o);
+  o += marginCounts.length;
+  for (const s of sample) {
+    f64.set(s.deviations, o);
+    o += s.deviations.length;
+    f64.set(s.margins, o);
+    o += s.margins.length;
+  }
+  new Uint32Array(bytes.buffer, u32Start, envelopeCounts.length).set(envelopeCounts);
+  return bytes;
+}
+
+/** Inverse of encodeAggregate. @throws EngineError INVALID_INPUT for a buffer that is not an aggregate */
+export function decodeAggregate(bytes: Uint8Array): TrialAggregate {
+  if (bytes.length < 8 || bytes[0] !== 76 || bytes[1] !== 87 || bytes[2] !== 65 || bytes[3] !== 49) {
+    throw new EngineError("INVALID_INPUT", "not a Lotwise trial aggregate", { path: "aggregate" });
+  }
+  const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  const jsonLength = view.getUint32(4, true);
+  const header = JSON.parse(new TextDecoder().decode(bytes.subarray(8, 8 + jsonLength)), (_, v) => (v === "+inf" ? Infinity : v === "-inf" ? -Infinity : v));
+  // Copy into fresh, aligned buffers (the input may sit at any offset).
+  const base = Math.ceil((8 + jsonLength) / 8) * 8;
+  const f64Count = header.marginCountsLength + header.sample.reduce((n: number, s: { dl: number; ml: number }) => n + s.dl + s.ml, 0);
+  const f64 = new Float64Array(bytes.slice(base, base + f64Count * 8).buffer);
+  const u32Start = base + f64Count * 8;
+  const envelopeCounts = new Uint32Array(bytes.slice(u32Start, u32Start + header.envelopeLength * 4).buffer);
+  let o = 0;
+  const marginCounts = f64.slice(o, o + header.marginCountsLength);
+  o += header.marginCountsLength;
+  const sample: SampleSegment[] = header.sample.map((s: { start: number; count: number; dl: number; ml: number }) => {
+    const deviations = f64.slice(o, o + s.dl);
+    o += s.dl;
+    const margins = f64.slice(o, o + s.ml);
+    o += s.ml;
+    return { start: s.start, count: s.count, deviations, margins };
+  });
+  const { marginCountsLength: _m, envelopeLength: _e, sample: _s, ...plain } = header;
+  return { ...plain, marginCounts, envelopeCounts, sample } as TrialAggregate;
+}
+
+function metaOf(plan: RunPlan): AggregateMeta {
+  const o = plan.options;
+  return {
+    seed: o.seed,
+    trialCap: o.trials,
+    corners: o.corners.slice(),
+    partRefs: plan.sampling.refs.slice(),
+    rules: plan.rules.map(({ rule }) => {
+      const r: AggregateMeta["rules"][number] = { metric: rule.metric, from: rule.from, to: rule.to, unit: rule.unit };
+      if (rule.label !== undefined) r.label = rule.label;
+      if (rule.min !== undefined) r.min = rule.min;
+      if (rule.max !== undefined) r.max = rule.max;
+      return r;
+    }),
+    freqs: Array.from(plan.grid.freqs),
+    pairs: plan.pairs.map((p) => p.name),
+    nominalMargins: Array.from(plan.nominalMargins),
+    marginEdges: plan.marginEdges.map((e) => ({ ...e })),
+    nominalDb: Array.from(plan.nominalDb),
+    envelopeBins: plan.envelopeBins,
+    envelopeBinDb: plan.envelopeBinDb,
+    envelopeSpanDb: o.envelopeSpanDb,
+    sensitivitySampleSize: o.sensitivitySampleSize,
+    failingTrialCount: o.failingTrialCount,
+  };
+}
+
+function sameRun(a: AggregateMeta, b: AggregateMeta): boolean {
+  return a === b || (a.seed === b.seed && a.trialCap === b.trialCap && a.freqs.length === b.freqs.length && a.rules.length === b.rules.length &&
+    a.partRefs.join("\u0000") === b.partRefs.join("\u0000") && a.envelopeBins === b.envelopeBins && a.corners.join(",") === b.corners.join(","));
+}
+
+function mergeRanges(a: [number, number][], b: [number, number][]): [number, number][] {
+  const all = [...a, ...b].sort((x, y) => x[0] - y[0]);
+  const out: [number, number][] = [];
+  for (const [s, e] of all) {
+    const last = out[out.length - 1];
+    if (last && s < last[1]) throw new EngineError("INVALID_INPUT", `trial ranges overlap at trial ${s}`, { path: "aggregate.ranges" });
+    if (last && s === last[1]) last[1] = e;
+    else out.push([s, e]);
+  }
+  return out;
+}

@@ -1,0 +1,54 @@
+import type { QueryClient } from "@tanstack/react-query";
+import { createBrowserRouter, Outlet, type LoaderFunction } from "react-router-dom";
+import { RouteError } from "@/components/errors/route-error";
+import { LoadingRegion } from "@/components/ui/spinner";
+import { paths } from "@/config/paths";
+
+type RouteModule = {
+  default: React.ComponentType;
+  clientLoader?: (queryClient: QueryClient) => LoaderFunction;
+};
+
+/** Turns a route module (default component + optional `clientLoader(queryClient)`) into a lazy route. */
+function convert(queryClient: QueryClient) {
+  return ({ default: Component, clientLoader }: RouteModule) => ({
+    Component,
+    loader: clientLoader?.(queryClient),
+  });
+}
+
+function HydrateFallback() {
+  return (
+    <div className="flex min-h-screen items-center justify-center">
+      <LoadingRegion label="Starting Lotwise…" />
+    </div>
+  );
+}
+
+export function createAppRouter(queryClient: QueryClient) {
+  const load = convert(queryClient);
+  return createBrowserRouter([
+    {
+      element: <Outlet />,
+      errorElement: <RouteError />,
+      HydrateFallback,
+      children: [
+        { path: paths.auth.signIn.path, lazy: () => import("@/app/routes/auth/sign-in").then(load) },
+        { path: paths.auth.forgotPassword.path, lazy: () => import("@/app/routes/auth/forgot-password").then(load) },
+        { path: paths.auth.resetPassword.path, lazy: () => import("@/app/routes/auth/reset-password").then(load) },
+        { path: paths.auth.invitation.path, lazy: () => import("@/app/routes/auth/invitation").then(load) },
+        {
+          path: paths.app.root.path,
+          lazy: () => import("@/app/routes/app/root").then(load),
+          children: [
+            { index: true, lazy: () => import("@/app/routes/app/overview").then(load) },
+            { path: paths.app.team.path, lazy: () => import("@/app/routes/app/team").then(load) },
+            { path: paths.app.outbox.path, lazy: () => import("@/app/routes/app/outbox").then(load) },
+            { path: "*", lazy: () => import("@/app/routes/not-found").then(load) },
+          ],
+        },
+        { path: "*", lazy: () => import("@/app/routes/not-found").then(load) },
+      ],
+    },
+  ]);
+}

@@ -1,0 +1,22 @@
+import { queryOptions, useQuery } from "@tanstack/react-query";
+import { api } from "@/lib/api-client";
+import type { InvitationPreview } from "@/features/auth/api/types";
+
+export async function getInvitation(token: string): Promise<InvitationPreview> {
+  const { invitation } = await api.get<{ invitation: InvitationPreview }>(
+    `/auth/invitations/${encodeURIComponent(token)}`,
+  );
+  return invitation;
+}
+
+export function getInvitationQueryOptions(token: string) {
+  return queryOptions({
+    queryKey: ["invitation-preview", token] as const,
+    queryFn: () => getInvitation(token),
+    staleTime: 60_000,
+  });
+}
+
+export function useInvitation(token: string) {
+  return useQuery(getInvitationQueryOptions(token));
+}

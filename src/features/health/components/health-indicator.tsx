@@ -1,0 +1,21 @@
+import { cn } from "@/utils/cn";
+import { useHealth } from "@/features/health/api/get-health";
+
+/** A one-line server and database state, for the foot of the navigation. */
+export function HealthIndicator() {
+  const health = useHealth();
+  const state = health.isPending
+    ? { label: "checking server…", dot: "bg-ink-500" }
+    : health.isError
+      ? { label: "server unreachable", dot: "bg-fault-400" }
+      : health.data.status === "ok"
+        ? { label: `server ok · database ${health.data.database}`, dot: "bg-pass-400" }
+        : { label: `server degraded · database ${health.data.database}`, dot: "bg-signal-400" };
+
+  return (
+    <p role="status" className="flex items-center gap-2 font-mono text-[11px] text-ink-400">
+      <span aria-hidden="true" className={cn("size-2 rounded-full", state.dot)} />
+      {state.label}
+    </p>
+  );
+}

@@ -1,0 +1,21 @@
+import { useMutation, useQueryClient } from "@tanstack/react-query";
+import type { UpdateMemberInput } from "@shared/schemas/team";
+import { api } from "@/lib/api-client";
+import { getMembersQueryOptions } from "@/features/team/api/get-members";
+import type { Member } from "@/features/team/api/types";
+
+export { updateMemberSchema } from "@shared/schemas/team";
+
+export async function updateMember({ id, data }: { id: string; data: UpdateMemberInput }): Promise<Member> {
+  const { member } = await api.patch<{ member: Member }>(`/team/members/${encodeURIComponent(id)}`, data);
+  return member;
+}
+
+/** Changes a member's name, roles or active state; 409 LAST_ADMIN keeps one active admin. */
+export function useUpdateMember() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: updateMember,
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: getMembersQueryOptions().queryKey }),
+  });
+}
