@@ -1,3 +1,4 @@
+import type { ComponentType } from "react";
 import type { QueryClient } from "@tanstack/react-query";
 import { createBrowserRouter, Outlet, type LoaderFunction } from "react-router-dom";
 import { RouteError } from "@/components/errors/route-error";
@@ -5,16 +6,14 @@ import { LoadingRegion } from "@/components/ui/spinner";
 import { paths } from "@/config/paths";
 
 type RouteModule = {
-  default: React.ComponentType;
+  default: ComponentType;
   clientLoader?: (queryClient: QueryClient) => LoaderFunction;
 };
 
 /** Turns a route module (default component + optional `clientLoader(queryClient)`) into a lazy route. */
 function convert(queryClient: QueryClient) {
-  return ({ default: Component, clientLoader }: RouteModule) => ({
-    Component,
-    loader: clientLoader?.(queryClient),
-  });
+  return ({ default: Component, clientLoader }: RouteModule) =>
+    clientLoader ? { Component, loader: clientLoader(queryClient) } : { Component };
 }
 
 function HydrateFallback() {
@@ -47,7 +46,6 @@ export function createAppRouter(queryClient: QueryClient) {
             { path: "*", lazy: () => import("@/app/routes/not-found").then(load) },
           ],
         },
-        { path: "*", lazy: () => import("@/app/routes/not-found").then(load) },
       ],
     },
   ]);

@@ -10,7 +10,7 @@ export function useForm<V extends Record<string, string>>(initial: V) {
   const [errors, setErrors] = useState<FieldErrors>({});
   const [formError, setFormError] = useState<string | null>(null);
 
-  function bind(name: keyof V & string) {
+  function bind(name: keyof V & string): { name: string; value: string; onChange: (event: ChangeEvent<HTMLInputElement>) => void } {
     return {
       name,
       value: values[name],

@@ -25,7 +25,7 @@ export function Alert({ tone = "info", title, children, className, role }: Alert
       className={cn("rounded-md border px-4 py-3 text-sm", tones[tone], className)}
     >
       {title && <p className="font-semibold">{title}</p>}
-      {children && <div className={cn(title && "mt-1", "leading-relaxed")}>{children}</div>}
+      {children && <div className={cn(title ? "mt-1" : undefined, "leading-relaxed")}>{children}</div>}
     </div>
   );
 }

@@ -1,0 +1,247 @@
+/**
+ * Seeded Monte Carlo yield runs.
+ *
+ * A run = netlist + limits + options (trials, seed, sweep, corners, …). Trial i samples part values
+ * from its own stream (random.ts, sampling.ts), is solved at every grid point at every temperature
+ * corner, and its margin per rule is the worst over corners (rules.ts); it passes when every margin
+ * is ≥ 0. Chunks of trials produce mergeable aggregates (aggregate.ts), merged exactly and finalized
+ * into a RunResult (result.ts). `runMonteCarlo` drives a run in one thread (browser, CLI with one
+ * worker, tests); server/engine/trial-pool.ts drives the same chunks on a worker pool.
+ *
+ * Stop when sure: with `targetHalfWidth`, trials run in batches of `batchSize` (default 1000); after
+ * each batch the Wilson 95 % half-width of all trials so far is checked and the run stops once it is
+ * ≤ the target or the trial cap `trials` is reached. The check only sees merged counts after whole
+ * batches, so the stopping point depends on the seed alone, not on workers or chunking.
+ */
+import { createAggregate, mergeAggregates, type SampleSegment, type TrialAggregate } from "./aggregate";
+import { EngineError } from "./errors";
+import type { Netlist } from "./netlist";
+import { createTrialStream, type RunSeed } from "./random";
+import { finalizeRun, type RunResult } from "./result";
+import type { RunOptions } from "./run-options";
+import { planRun, type RunPlan } from "./run-plan";
+import { evaluateMargins, magDb } from "./rules";
+import { sampleTrial } from "./sampling";
+import { sParamDeg } from "./solver";
+import { exactSumAdd } from "./stats/exact-sum";
+import { histogramSlot } from "./stats/histogram";
+import { wilsonHalfWidth } from "./stats/intervals";
+
+/** A cancellation flag checked between trials (an AbortSignal satisfies it). */
+export interface CancelFlag {
+  readonly aborted: boolean;
+}
+
+/** One chunk of a run: trials [start, start + count). */
+export interface ChunkTask {
+  netlist: Netlist;
+  limits: unknown;
+  options: RunOptions;
+  start: number;
+  count: number;
+}
+
+/**
+ * Evaluates trials [start, start + count) of a run and returns their aggregate (no per-trial data
+ * except the sensitivity sample of trials with index < sensitivitySampleSize).
+ * @param task the chunk (validated on entry)
+ * @param cancel optional flag; when it turns true the chunk stops with EngineError CANCELLED
+ * @throws EngineError INVALID_INPUT / INVALID_NETLIST / INVALID_LIMITS, SINGULAR_MATRIX, CANCELLED
+ */
+export function runTrialChunk(task: ChunkTask, cancel?: CancelFlag): TrialAggregate {
+  if (typeof task !== "object" || task === null) throw new EngineError("INVALID_INPUT", "chunk task must be an object", { path: "task" });
+  const plan = planRun(task.netlist, task.limits, task.options);
+  const { start, count } = task;
+  if (!Number.isInteger(start) || start < 0) throw new EngineError("INVALID_INPUT", "`start` must be an integer ≥ 0", { path: "start" });
+  if (!Number.isInteger(count) || count < 1 || start + count > plan.options.trials) {
+    throw new EngineError("INVALID_INPUT", "`count` must be an integer ≥ 1 with start + count ≤ trials", { path: "count" });
+  }
+  return evaluateTrials(plan, start, count, cancel);
+}
+
+/** The trial loop of a chunk on an already built plan. */
+export function evaluateTrials(plan: RunPlan, start: number, count: number, cancel?: CancelFlag): TrialAggregate {
+  const agg = createAggregate(plan);
+  const P = plan.sampling.partCount;
+  const R = plan.rules.length;
+  const ports = plan.compiled.portCount;
+  const F = plan.grid.freqs.length;
+  const { seed, corners, histogramBins, sensitivitySampleSize, failingTrialCount } = plan.options;
+  const values = new Float64Array(P);
+  const deviations = new Float64Array(P);
+  const lots = new Float64Array(plan.sampling.lotNames.length);
+  const worst = new Float64Array(R);
+  const margins = new Float64Array(R);
+  const envBins = plan.envelopeBins;
+  const envStride = envBins + 2;
+  const envInv = 1 / plan.envelopeBinDb;
+  const envLo = plan.nominalDb.map((db) => db - plan.options.envelopeSpanDb);
+  const env = agg.envelopeCounts;
+  const invW = plan.marginEdges.map((e) => e.bins / (e.hi - e.lo));
+  const sampleEnd = Math.min(start + count, sensitivitySampleSize);
+  const segment: SampleSegment | null = start < sampleEnd
+    ? { start, count: sampleEnd - start, deviations: new Float64Array((sampleEnd - start) * P), margins: new Float64Array((sampleEnd - start) * R) }
+    : null;
+
+  for (let t = start; t < start + count; t++) {
+    if (cancel?.aborted) throw new EngineError("CANCELLED", `run cancelled at trial ${t}`, { details: { trial: t } });
+    sampleTrial(plan.sampling, createTrialStream(seed, t), values, deviations, lots);
+    worst.fill(Infinity);
+    for (const tempC of corners) {
+      const buf = plan.evaluator.evaluate(values, tempC);
+      evaluateMargins(buf, plan.rules, margins);
+      for (let r = 0; r < R; r++) if (margins[r] < worst[r]) worst[r] = margins[r];
+      const s = buf.s;
+      for (let k = 0; k < plan.pairs.length; k++) {
+        const { i, j } = plan.pairs[k];
+        for (let f = 0; f < F; f++) {
+          const cell = k * F + f;
+          env[cell * envStride + histogramSlot(envLo[cell], envInv, envBins, magDb(s, ((f * ports + i) * ports + j) * 2))]++;
+        }
+      }
+    }
+    let pass = true;
+    for (let r = 0; r < R; r++) {
+      const m = worst[r];
+      if (m < 0) {
+        pass = false;
+        agg.ruleFailures[r]++;
+      }
+      exactSumAdd(agg.marginSum[r], m);
+      exactSumAdd(agg.marginSumSq[r], m * m);
+      if (m < agg.marginMin[r]) agg.marginMin[r] = m;
+      if (m > agg.marginMax[r]) agg.marginMax[r] = m;
+      const e = plan.marginEdges[r];
+      agg.marginCounts[r * (histogramBins + 2) + histogramSlot(e.lo, invW[r], e.bins, m)]++;
+    }
+    if (pass) agg.passed++;
+    else if (agg.failing.length < failingTrialCount) agg.failing.push(t);
+    if (segment && t < sampleEnd) {
+      segment.deviations.set(deviations, (t - start) * P);
+      segment.margins.set(worst, (t - start) * R);
+    }
+  }
+  agg.trials = count;
+  agg.ranges = [[start, start + count]];
+  if (segment) agg.sample = [segment];
+  return agg;
+}
+
+/** How a run is split: `chunkSize` trials per chunk (default 2500). */
+export interface DriveOptions {
+  chunkSize?: number;
+  onProgress?: (progress: { done: number; total: number }) => void;
+  cancel?: CancelFlag;
+}
+
+/**
+ * The chunk schedule of a run: batches (stop-when-sure) of chunks [start, count).
+ * Without a target the whole run is one batch.
+ */
+export function planBatches(trials: number, targetHalfWidth: number | null, batchSize: number, chunkSize: number): { start: number; count: number }[][] {
+  const batches: { start: number; count: number }[][] = [];
+  const step = targetHalfWidth === null ? trials : batchSize;
+  for (let b = 0; b < trials; b += step) {
+    const end = Math.min(trials, b + step);
+    const chunks: { start: number; count: number }[] = [];
+    for (let c = b; c < end; c += chunkSize) chunks.push({ start: c, count: Math.min(chunkSize, end - c) });
+    batches.push(chunks);
+  }
+  return batches;
+}
+
+/**
+ * Runs batches of chunks with any chunk executor (in-thread or a worker pool) and finalizes.
+ * @param plan the run plan (for the empty aggregate and options)
+ * @param runChunks executes the chunks of one batch, resolving to their aggregates (any order)
+ */
+export async function driveRun(
+  plan: RunPlan,
+  runChunks: (chunks: { start: number; count: number }[]) => Promise<TrialAggregate[]>,
+  drive: DriveOptions = {},
+): Promise<RunResult> {
+  const { trials, targetHalfWidth, batchSize } = plan.options;
+  const chunkSize = validateChunkSize(drive.chunkSize);
+  let total = createAggregate(plan);
+  for (const batch of planBatches(trials, targetHalfWidth, batchSize, chunkSize)) {
+    if (drive.cancel?.aborted) throw new EngineError("CANCELLED", `run cancelled after ${total.trials} trials`);
+    for (const part of await runChunks(batch)) total = mergeAggregates(total, part);
+    drive.onProgress?.({ done: total.trials, total: trials });
+    if (targetHalfWidth !== null && wilsonHalfWidth(total.passed, total.trials) <= targetHalfWidth) break;
+  }
+  return finalizeRun(total, { targetHalfWidth });
+}
+
+/**
+ * Runs a whole Monte Carlo analysis in the calling thread.
+ * @param netlist the circuit, @param limits the limit set, @param options trials, seed and the rest
+ * @returns the run result
+ * @throws EngineError as runTrialChunk
+ * @example const res = await runMonteCarlo(netlist, limits, { trials: 10000, seed: 1 }); res.wilson95
+ */
+export async function runMonteCarlo(netlist: Netlist, limits: unknown, options: RunOptions, drive: DriveOptions = {}): Promise<RunResult> {
+  const plan = planRun(netlist, limits, options);
+  return driveRun(plan, async (chunks) => chunks.map((c) => evaluateTrials(plan, c.start, c.count, drive.cancel)), drive);
+}
+
+/** Default and bounds of the chunk size. */
+export const DEFAULT_CHUNK_SIZE = 2500;
+
+/** Checks a chunk size (integer 1..1e6), default 2500. @throws EngineError INVALID_INPUT */
+export function validateChunkSize(chunkSize: number | undefined): number {
+  if (chunkSize === undefined) return DEFAULT_CHUNK_SIZE;
+  if (!Number.isInteger(chunkSize) || chunkSize < 1 || chunkSize > 1_000_000) throw new EngineError("INVALID_INPUT", "`chunkSize` must be an integer 1..1000000", { path: "chunkSize" });
+  return chunkSize;
+}
+
+/** The full response and part values of one replayed trial. */
+export interface TrialReplay {
+  seed: RunSeed;
+  index: number;
+  pass: boolean;
+  parts: { ref: string; nominal: number; value: number; deviation: number }[];
+  /** worst margin per rule over corners */
+  margins: number[];
+  freqs: number[];
+  corners: { tempC: number; margins: number[]; sDb: Record<string, number[]>; sDeg: Record<string, number[]>; gd21Ns: number[] }[];
+}
+
+/**
+ * Replays trial `index` of a run exactly (the same stream as in the run).
+ * @param netlist @param limits @param options run options (trials and seed may be omitted)
+ * @param seed the run seed @param index trial index (integer ≥ 0)
+ * @throws EngineError as runTrialChunk
+ */
+export function replayTrial(netlist: Netlist, limits: unknown, options: Partial<RunOptions>, seed: RunSeed, index: number): TrialReplay {
+  if (!Number.isInteger(index) || index < 0) throw new EngineError("INVALID_INPUT", "`index` must be an integer ≥ 0", { path: "index" });
+  const plan = planRun(netlist, limits, { ...options, seed, trials: Math.max(options.trials ?? 1, index + 1) });
+  const P = plan.sampling.partCount;
+  const values = new Float64Array(P);
+  const deviations = new Float64Array(P);
+  sampleTrial(plan.sampling, createTrialStream(plan.options.seed, index), values, deviations);
+  const margins = new Float64Array(plan.rules.length);
+  const worst = new Array<number>(plan.rules.length).fill(Infinity);
+  const ports = plan.compiled.portCount;
+  const corners = plan.options.corners.map((tempC) => {
+    const buf = plan.evaluator.evaluate(values, tempC);
+    evaluateMargins(buf, plan.rules, margins);
+    margins.forEach((m, r) => (worst[r] = Math.min(worst[r], m)));
+    const sDb: Record<string, number[]> = {};
+    const sDeg: Record<string, number[]> = {};
+    for (const p of plan.pairs) {
+      sDb[p.name] = Array.from(plan.grid.freqs, (_, f) => magDb(buf.s, ((f * ports + p.i) * ports + p.j) * 2));
+      sDeg[p.name.replace("_db", "_deg")] = Array.from(sParamDeg(buf, p.i, p.j));
+    }
+    const gd21Ns = Array.from(plan.grid.freqs, (_, f) => buf.gd[(f * ports + 1) * ports + 0] * 1e9);
+    return { tempC, margins: Array.from(margins), sDb, sDeg, gd21Ns };
+  });
+  return {
+    seed: plan.options.seed,
+    index,
+    pass: worst.every((m) => m >= 0),
+    parts: plan.sampling.refs.map((ref, k) => ({ ref, nominal: plan.sampling.nominal[k], value: values[k], deviation: deviations[k] })),
+    margins: worst,
+    freqs: Array.from(plan.grid.freqs),
+    corners,
+  };
+}
