@@ -92,3 +92,10 @@ function toAttributes(row: UserRow): AuthUserAttributes {
   const roles = Array.isArray(raw) ? raw.filter((r): r is Role => (ROLES as readonly string[]).includes(r)) : [];
   return { email: row.email, name: row.name, roles, active: Boolean(row.active) };
 }
+
+declare module "lucia" {
+  interface Register {
+    Lucia: Lucia<Record<never, never>, AuthUserAttributes>;
+    DatabaseUserAttributes: AuthUserAttributes;
+  }
+}

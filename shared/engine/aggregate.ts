@@ -89,29 +89,44 @@ export function createAggregate(plan: RunPlan): TrialAggregate {
  * @throws EngineError INVALID_INPUT when the aggregates belong to different runs or overlap
  */
 export function mergeAggregates(a: TrialAggregate, b: TrialAggregate): TrialAggregate {
-  if (!sameRun(a.meta, b.meta)) throw new EngineError("INVALID_INPUT", "cannot merge aggregates of different runs", { path: "aggregate.meta" });
-  const ranges = mergeRanges(a.ranges, b.ranges);
-  const R = a.ruleFailures.length;
-  const marginCounts = a.marginCounts.slice();
-  addCounts(marginCounts, b.marginCounts);
-  const envelopeCounts = a.envelopeCounts.slice();
-  addCounts(envelopeCounts, b.envelopeCounts);
-  const failing = Array.from(new Set([...a.failing, ...b.failing])).sort((x, y) => x - y).slice(0, a.meta.failingTrialCount);
-  return {
-    meta: a.meta,
-    trials: a.trials + b.trials,
-    passed: a.passed + b.passed,
-    ranges,
-    ruleFailures: a.ruleFailures.map((v, r) => v + b.ruleFailures[r]),
-    marginSum: Array.from({ length: R }, (_, r) => exactSumMerge(a.marginSum[r].slice(), b.marginSum[r])),
-    marginSumSq: Array.from({ length: R }, (_, r) => exactSumMerge(a.marginSumSq[r].slice(), b.marginSumSq[r])),
-    marginMin: a.marginMin.map((v, r) => Math.min(v, b.marginMin[r])),
-    marginMax: a.marginMax.map((v, r) => Math.max(v, b.marginMax[r])),
-    marginCounts,
-    envelopeCounts,
-    failing,
-    sample: [...a.sample, ...b.sample].sort((x, y) => x.start - y.start),
+  const copy: TrialAggregate = {
+    ...a,
+    ranges: a.ranges.map((r) => [r[0], r[1]] as [number, number]),
+    ruleFailures: a.ruleFailures.slice(),
+    marginSum: a.marginSum.map((x) => x.slice()),
+    marginSumSq: a.marginSumSq.map((x) => x.slice()),
+    marginMin: a.marginMin.slice(),
+    marginMax: a.marginMax.slice(),
+    marginCounts: a.marginCounts.slice(),
+    envelopeCounts: a.envelopeCounts.slice(),
+    failing: a.failing.slice(),
+    sample: a.sample.slice(),
   };
+  mergeInto(copy, b);
+  return copy;
+}
+
+/**
+ * Merges b into target in place (b is not changed); the same exact, order-independent merge as
+ * mergeAggregates without copying the large count arrays.
+ * @throws EngineError INVALID_INPUT when the aggregates belong to different runs or overlap
+ */
+export function mergeInto(target: TrialAggregate, b: TrialAggregate): void {
+  if (!sameRun(target.meta, b.meta)) throw new EngineError("INVALID_INPUT", "cannot merge aggregates of different runs", { path: "aggregate.meta" });
+  target.ranges = mergeRanges(target.ranges, b.ranges);
+  target.trials += b.trials;
+  target.passed += b.passed;
+  for (let r = 0; r < target.ruleFailures.length; r++) {
+    target.ruleFailures[r] += b.ruleFailures[r];
+    exactSumMerge(target.marginSum[r], b.marginSum[r]);
+    exactSumMerge(target.marginSumSq[r], b.marginSumSq[r]);
+    target.marginMin[r] = Math.min(target.marginMin[r], b.marginMin[r]);
+    target.marginMax[r] = Math.max(target.marginMax[r], b.marginMax[r]);
+  }
+  addCounts(target.marginCounts, b.marginCounts);
+  addCounts(target.envelopeCounts, b.envelopeCounts);
+  target.failing = Array.from(new Set([...target.failing, ...b.failing])).sort((x, y) => x - y).slice(0, target.meta.failingTrialCount);
+  target.sample = [...target.sample, ...b.sample].sort((x, y) => x.start - y.start);
 }
 
 /**

@@ -13,14 +13,14 @@
  * ≤ the target or the trial cap `trials` is reached. The check only sees merged counts after whole
  * batches, so the stopping point depends on the seed alone, not on workers or chunking.
  */
-import { createAggregate, mergeAggregates, type SampleSegment, type TrialAggregate } from "./aggregate";
+import { createAggregate, mergeInto, type SampleSegment, type TrialAggregate } from "./aggregate";
 import { EngineError } from "./errors";
 import type { Netlist } from "./netlist";
 import { createTrialStream, type RunSeed } from "./random";
 import { finalizeRun, type RunResult } from "./result";
 import type { RunOptions } from "./run-options";
 import { planRun, type RunPlan } from "./run-plan";
-import { evaluateMargins, magDb } from "./rules";
+import { evaluateMargins, evaluateMarginsDb, fillMagnitudeDb, magDb } from "./rules";
 import { sampleTrial } from "./sampling";
 import { sParamDeg } from "./solver";
 import { exactSumAdd } from "./stats/exact-sum";
@@ -64,7 +64,6 @@ export function evaluateTrials(plan: RunPlan, start: number, count: number, canc
   const agg = createAggregate(plan);
   const P = plan.sampling.partCount;
   const R = plan.rules.length;
-  const ports = plan.compiled.portCount;
   const F = plan.grid.freqs.length;
   const { seed, corners, histogramBins, sensitivitySampleSize, failingTrialCount } = plan.options;
   const values = new Float64Array(P);
@@ -77,6 +76,8 @@ export function evaluateTrials(plan: RunPlan, start: number, count: number, canc
   const envInv = 1 / plan.envelopeBinDb;
   const envLo = plan.nominalDb.map((db) => db - plan.options.envelopeSpanDb);
   const env = agg.envelopeCounts;
+  const cells = plan.pairs.length * F;
+  const db = new Float64Array(cells);
   const invW = plan.marginEdges.map((e) => e.bins / (e.hi - e.lo));
   const sampleEnd = Math.min(start + count, sensitivitySampleSize);
   const segment: SampleSegment | null = start < sampleEnd
@@ -89,16 +90,10 @@ export function evaluateTrials(plan: RunPlan, start: number, count: number, canc
     worst.fill(Infinity);
     for (const tempC of corners) {
       const buf = plan.evaluator.evaluate(values, tempC);
-      evaluateMargins(buf, plan.rules, margins);
+      fillMagnitudeDb(buf, db); // one log per pair and point, shared by the rules and the envelopes
+      evaluateMarginsDb(db, buf, plan.rules, margins);
       for (let r = 0; r < R; r++) if (margins[r] < worst[r]) worst[r] = margins[r];
-      const s = buf.s;
-      for (let k = 0; k < plan.pairs.length; k++) {
-        const { i, j } = plan.pairs[k];
-        for (let f = 0; f < F; f++) {
-          const cell = k * F + f;
-          env[cell * envStride + histogramSlot(envLo[cell], envInv, envBins, magDb(s, ((f * ports + i) * ports + j) * 2))]++;
-        }
-      }
+      for (let cell = 0; cell < cells; cell++) env[cell * envStride + histogramSlot(envLo[cell], envInv, envBins, db[cell])]++;
     }
     let pass = true;
     for (let r = 0; r < R; r++) {
@@ -152,21 +147,25 @@ export function planBatches(trials: number, targetHalfWidth: number | null, batc
 
 /**
  * Runs batches of chunks with any chunk executor (in-thread or a worker pool) and finalizes.
+ * Chunk aggregates are merged as they arrive (any order: the merge is exact), so memory holds one
+ * running total plus the chunks in flight, whatever the trial count.
  * @param plan the run plan (for the empty aggregate and options)
- * @param runChunks executes the chunks of one batch, resolving to their aggregates (any order)
+ * @param runChunks executes the chunks of one batch, passing each aggregate to `accept`
  */
 export async function driveRun(
   plan: RunPlan,
-  runChunks: (chunks: { start: number; count: number }[]) => Promise<TrialAggregate[]>,
+  runChunks: (chunks: { start: number; count: number }[], accept: (agg: TrialAggregate) => void) => Promise<void>,
   drive: DriveOptions = {},
 ): Promise<RunResult> {
   const { trials, targetHalfWidth, batchSize } = plan.options;
   const chunkSize = validateChunkSize(drive.chunkSize);
-  let total = createAggregate(plan);
+  const total = createAggregate(plan);
   for (const batch of planBatches(trials, targetHalfWidth, batchSize, chunkSize)) {
     if (drive.cancel?.aborted) throw new EngineError("CANCELLED", `run cancelled after ${total.trials} trials`);
-    for (const part of await runChunks(batch)) total = mergeAggregates(total, part);
-    drive.onProgress?.({ done: total.trials, total: trials });
+    await runChunks(batch, (part) => {
+      mergeInto(total, part);
+      drive.onProgress?.({ done: total.trials, total: trials });
+    });
     if (targetHalfWidth !== null && wilsonHalfWidth(total.passed, total.trials) <= targetHalfWidth) break;
   }
   return finalizeRun(total, { targetHalfWidth });
@@ -181,7 +180,9 @@ export async function driveRun(
  */
 export async function runMonteCarlo(netlist: Netlist, limits: unknown, options: RunOptions, drive: DriveOptions = {}): Promise<RunResult> {
   const plan = planRun(netlist, limits, options);
-  return driveRun(plan, async (chunks) => chunks.map((c) => evaluateTrials(plan, c.start, c.count, drive.cancel)), drive);
+  return driveRun(plan, async (chunks, accept) => {
+    for (const c of chunks) accept(evaluateTrials(plan, c.start, c.count, drive.cancel));
+  }, drive);
 }
 
 /** Default and bounds of the chunk size. */

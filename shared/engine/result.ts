@@ -9,7 +9,8 @@
  *   worst-case band statistic. Null when s = 0 or n < 2.
  * - envelopes: 1/5/50/95/99 % quantiles of every |S_ij| dB per grid point from the fixed-bin
  *   histograms (resolution = one bin, default 0.02 dB; window nominal ± 6 dB; a quantile beyond the
- *   window is reported at the window edge and counted in `clipped`).
+ *   window is reported at the window edge and counted in `clipped`). With several temperature corners
+ *   every (trial, corner) response is one sample of the envelope.
  * - sensitivity: Spearman ρ of each part's relative deviation with each rule's margin over the
  *   first `sensitivitySampleSize` trials by index (default 5000), so it does not depend on chunking.
  * Numbers that are not finite are reported as null so the result is valid JSON.

@@ -31,12 +31,43 @@ export interface BoundRule {
  * @param out margins, length rules.length (dB or ns)
  */
 export function evaluateMargins(buffers: SweepBuffers, rules: readonly BoundRule[], out: Float64Array): void {
+  const db = new Float64Array(buffers.portCount * buffers.portCount * buffers.freqs.length);
+  fillMagnitudeDb(buffers, db);
+  evaluateMarginsDb(db, buffers, rules, out);
+}
+
+/**
+ * |S_ij| dB of every pair at every grid point: db[(i·P + j)·F + f] (no allocation).
+ * @param buffers the solver's output
+ * @param db out, length P²·F
+ */
+export function fillMagnitudeDb(buffers: SweepBuffers, db: Float64Array): void {
   const P = buffers.portCount;
+  const F = buffers.freqs.length;
   const s = buffers.s;
+  for (let i = 0; i < P; i++) {
+    for (let j = 0; j < P; j++) {
+      const k = (i * P + j) * F;
+      for (let f = 0; f < F; f++) db[k + f] = magDb(s, ((f * P + i) * P + j) * 2);
+    }
+  }
+}
+
+/**
+ * Margins from precomputed |S| dB (fillMagnitudeDb) and the solver's group delay (no allocation).
+ * @param db |S_ij| dB, index (i·P + j)·F + f
+ * @param buffers the solver's output (for group delay and sizes)
+ * @param rules rules with their grid ranges
+ * @param out margins, length rules.length
+ */
+export function evaluateMarginsDb(db: Float64Array, buffers: SweepBuffers, rules: readonly BoundRule[], out: Float64Array): void {
+  const P = buffers.portCount;
+  const F = buffers.freqs.length;
   const gd = buffers.gd;
   for (let r = 0; r < rules.length; r++) {
     const { rule, start, end } = rules[r];
     const { i, j } = rule.parsed;
+    const base = (i * P + j) * F;
     const lo = rule.min;
     const hi = rule.max;
     let margin = Infinity;
@@ -44,9 +75,9 @@ export function evaluateMargins(buffers: SweepBuffers, rules: readonly BoundRule
       let top = -Infinity;
       let bottom = Infinity;
       for (let f = start; f < end; f++) {
-        const db = magDb(s, ((f * P + i) * P + j) * 2);
-        if (db > top) top = db;
-        if (db < bottom) bottom = db;
+        const v = db[base + f];
+        if (v > top) top = v;
+        if (v < bottom) bottom = v;
       }
       const pp = top - bottom;
       if (lo !== undefined) margin = pp - lo;
@@ -54,7 +85,7 @@ export function evaluateMargins(buffers: SweepBuffers, rules: readonly BoundRule
     } else {
       const isGd = rule.parsed.kind === "gd_ns";
       for (let f = start; f < end; f++) {
-        const m = isGd ? gd[(f * P + i) * P + j] * 1e9 : magDb(s, ((f * P + i) * P + j) * 2);
+        const m = isGd ? gd[(f * P + i) * P + j] * 1e9 : db[base + f];
         if (lo !== undefined && m - lo < margin) margin = m - lo;
         if (hi !== undefined && hi - m < margin) margin = hi - m;
       }

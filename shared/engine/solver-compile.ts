@@ -40,6 +40,12 @@ export interface SolverPlan {
   readonly updTarget: Int32Array;
   readonly updA: Int32Array;
   readonly updB: Int32Array;
+  /**
+   * 1 when step t eliminates a purely reactive pivot: its diagonal and neighbour slots can only hold
+   * imaginary values (no R, no lossy branch, no port termination has reached them), so L is real and
+   * the step runs in real arithmetic on imaginary parts (a lossless LC section).
+   */
+  readonly pivotImag: Uint8Array;
   /** Ref of the first ideal inductor (a short at DC), or null. */
   readonly idealInductorRef: string | null;
 }
@@ -263,6 +269,21 @@ function buildPlan(netlist: Netlist, n: number, partNodeA: Int32Array, partNodeB
     nbStart.push(nbSlot.length);
     updStart.push(updTarget.length);
   }
+  // Which slots can carry a real part: those an R, a lossy branch or a port termination stamps,
+  // and every target of a step whose pivot is not purely reactive.
+  const realSlot = new Uint8Array(slotCount);
+  for (let k = 0; k < parts.length; k++) {
+    if (parts[k].kind !== "R" && !hasSeriesBranch(parts[k])) continue;
+    for (const sl of [partDiagA[k], partDiagB[k], partOff[k]]) if (sl >= 0) realSlot[sl] = 1;
+  }
+  for (const v of portNode) realSlot[v] = 1;
+  const pivotImag = new Uint8Array(pivots.length);
+  for (let t = 0; t < pivots.length; t++) {
+    let imag = !realSlot[pivots[t]];
+    for (let q = nbStart[t]; q < nbStart[t + 1]; q++) if (realSlot[nbSlot[q]]) imag = false;
+    pivotImag[t] = imag ? 1 : 0;
+    if (!imag) for (let e = updStart[t]; e < updStart[t + 1]; e++) realSlot[updTarget[e]] = 1;
+  }
   const m = blockList.length;
   const blockSlot = new Int32Array(m * m);
   for (let x = 0; x < m; x++) for (let y = 0; y < m; y++) blockSlot[x * m + y] = pairSlot(blockList[x], blockList[y]);
@@ -289,6 +310,7 @@ function buildPlan(netlist: Netlist, n: number, partNodeA: Int32Array, partNodeB
     updTarget: Int32Array.from(updTarget),
     updA: Int32Array.from(updA),
     updB: Int32Array.from(updB),
+    pivotImag,
     idealInductorRef: ideal ? ideal.ref : null,
   };
 }

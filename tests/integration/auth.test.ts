@@ -63,7 +63,7 @@ describe("sign-in", () => {
     const first = await post("/api/auth/sign-in").send({ email: user.email, password: TEST_PASSWORD }).expect(200);
     const firstCookie = (first.headers["set-cookie"][0] as string).split(";")[0];
     const second = await post("/api/auth/sign-in").set("Cookie", firstCookie).send({ email: user.email, password: TEST_PASSWORD }).expect(200);
-    const secondCookie = (second.headers["set-cookie"] as string[]).find((c) => !c.startsWith("lotwise_session=;"))!.split(";")[0];
+    const secondCookie = (second.headers["set-cookie"] as unknown as string[]).find((c) => !c.startsWith("lotwise_session=;"))!.split(";")[0];
     expect(secondCookie).not.toBe(firstCookie);
     await request(t.app).get("/api/auth/me").set("Cookie", firstCookie).expect(401);
   });

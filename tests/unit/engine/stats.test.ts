@@ -6,6 +6,8 @@ import { histogramQuantile, histogramSlot } from "../../../shared/engine/stats/h
 import { normalCdf, normalQuantile } from "../../../shared/engine/stats/normal";
 import { EngineError } from "../../../shared/engine/errors";
 import { createTrialStream } from "../../../shared/engine/random";
+import { midranks, pearson } from "../../../shared/engine/stats/rank-correlation";
+import { sampleRankCorrelation } from "simple-statistics";
 
 const jStat = ((jstatModule as unknown as { jStat?: unknown }).jStat ?? jstatModule) as {
   beta: { inv(p: number, a: number, b: number): number };
@@ -158,3 +160,15 @@ function frexpInt(x: number): [bigint, number] {
   const e = (exp === 0 ? 1 : exp) - 1075;
   return [sign * m, e];
 }
+
+describe("Spearman rank correlation", () => {
+  it("agrees with simple-statistics sampleRankCorrelation, ties included", () => {
+    // [C] simple-statistics 7.12 sampleRankCorrelation (midranks + Pearson) as the reference
+    const rnd = createTrialStream("rank", 1);
+    const x = Array.from({ length: 500 }, () => Math.round(rnd() * 40));
+    const y = x.map((v) => v * v * (rnd() < 0.2 ? -1 : 1) + Math.round(rnd() * 30));
+    expect(pearson(midranks(x), midranks(y))).toBeCloseTo(sampleRankCorrelation(x, y), 12);
+    expect(Array.from(midranks([3, 1, 3, 2]))).toEqual([2.5, 0, 2.5, 1]); // [C] ranks 0..3, the two 3s share (2+3)/2
+    expect(pearson(midranks([1, 1, 1, 1]), midranks([1, 2, 3, 4]))).toBeNull();
+  });
+});

@@ -1,5 +1,5 @@
 import type { QueryClient } from "@tanstack/react-query";
-import { Navigate, Outlet, useLocation, useNavigate } from "react-router-dom";
+import { Navigate, Outlet, useLocation } from "react-router-dom";
 import { hasAnyRole } from "@shared/roles";
 import { RegionBoundary } from "@/components/errors/region-boundary";
 import { AppLayout, type NavItem } from "@/components/layouts/app-layout";
@@ -31,22 +31,19 @@ function navItemsFor(user: User): NavItem[] {
 export default function AppRoot() {
   const me = useMe();
   const location = useLocation();
-  const navigate = useNavigate();
   const signOut = useSignOut();
 
   if (me.isPending) return <LoadingRegion label="Checking your session…" />;
   if (me.isError) throw me.error;
   if (!me.data) {
-    const next = `${location.pathname}${location.search}`;
+    // After "Sign out" the next person starts at the Overview; after a lost session, where they were.
+    const next = signOut.isIdle ? `${location.pathname}${location.search}` : null;
     return <Navigate to={paths.auth.signIn.getHref(next)} replace />;
   }
 
   const user = me.data;
-  function handleSignOut() {
-    signOut.mutate(undefined, {
-      onSettled: () => navigate(paths.auth.signIn.getHref(), { replace: true }),
-    });
-  }
+  // Signing out empties the cached user, and the branch above then leads to sign-in.
+  const handleSignOut = () => signOut.mutate();
 
   return (
     <AppLayout

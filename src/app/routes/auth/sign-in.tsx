@@ -15,7 +15,8 @@ export default function SignInRoute() {
   return (
     <AuthLayout title="Sign in to Lotwise" lead="Use the e-mail address your team invited.">
       <title>Sign in · Lotwise</title>
-      <SignInForm onSuccess={() => {}} />
+      {/* Success updates the cached user; the redirect above then takes over. */}
+      <SignInForm />
     </AuthLayout>
   );
 }

@@ -10,7 +10,7 @@ import { signInSchema, useSignIn } from "@/features/auth/api/sign-in";
 import type { User } from "@/features/auth/api/types";
 
 /** E-mail and password; Enter submits. Wrong credentials and rate limits show above the button. */
-export function SignInForm({ onSuccess }: { onSuccess: (user: User) => void }) {
+export function SignInForm({ onSuccess }: { onSuccess?: (user: User) => void }) {
   const form = useForm({ email: "", password: "" });
   const signIn = useSignIn();
 

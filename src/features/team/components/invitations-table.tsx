@@ -68,8 +68,8 @@ export function InvitationsTable() {
                 <TableCell>
                   <Badge tone={TONE[state]}>{state}</Badge>
                 </TableCell>
-                <TableCell className="font-mono text-xs text-ink-300">{formatDateTime(invitation.createdAt)}</TableCell>
-                <TableCell className="font-mono text-xs text-ink-300">{formatDateTime(invitation.expiresAt)}</TableCell>
+                <TableCell className="whitespace-nowrap font-mono text-xs text-ink-300">{formatDateTime(invitation.createdAt)}</TableCell>
+                <TableCell className="whitespace-nowrap font-mono text-xs text-ink-300">{formatDateTime(invitation.expiresAt)}</TableCell>
                 <TableCell className="text-right">
                   {state === "pending" && (
                     <Button size="sm" variant="danger" pending={revoking} onClick={() => revoke.mutate(invitation.id)}>

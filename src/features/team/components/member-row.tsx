@@ -1,3 +1,4 @@
+import { useState } from "react";
 import { ROLES, ROLE_PURPOSE, type Role } from "@shared/roles";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
@@ -7,7 +8,6 @@ import { cn } from "@/utils/cn";
 import { formatDate } from "@/utils/format";
 import { updateMemberSchema, useUpdateMember } from "@/features/team/api/update-member";
 import type { Member } from "@/features/team/api/types";
-import { useState } from "react";
 
 const COLUMNS = 5;
 
@@ -72,7 +72,7 @@ export function MemberRow({ member, isSelf }: { member: Member; isSelf: boolean 
         <TableCell>
           <Badge tone={member.active ? "pass" : "muted"}>{member.active ? "active" : "inactive"}</Badge>
         </TableCell>
-        <TableCell className="font-mono text-xs text-ink-300">{formatDate(member.createdAt)}</TableCell>
+        <TableCell className="whitespace-nowrap font-mono text-xs text-ink-300">{formatDate(member.createdAt)}</TableCell>
         <TableCell className="text-right">
           <Button
             size="sm"

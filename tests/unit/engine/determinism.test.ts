@@ -1,0 +1,59 @@
+import { describe, expect, it } from "vitest";
+import { runMonteCarlo } from "../../../shared/engine/monte-carlo";
+import { wilsonHalfWidth } from "../../../shared/engine/stats/intervals";
+import type { Netlist } from "../../../shared/engine/netlist";
+
+// Same fixture as monte-carlo.test.ts (kept inline: test files do not import each other).
+/** 3rd-order Butterworth pi low-pass, 50 ohm, fc = 100 MHz (REFERENCES.md §3 [C]: 31.831 pF, 159.155 nH, 31.831 pF). */
+function butterworth3(tol = 0.05): Netlist {
+  return {
+    ports: [{ name: "in", node: "n1", z0: 50 }, { name: "out", node: "n2", z0: 50 }],
+    parts: [
+      { ref: "C1", kind: "C", nodes: ["n1", "gnd"], value: 31.831e-12, tolerance: tol, lot: "caps" },
+      { ref: "L2", kind: "L", nodes: ["n1", "n2"], value: 159.155e-9, tolerance: tol, tempco: 100 },
+      { ref: "C3", kind: "C", nodes: ["n2", "gnd"], value: 31.831e-12, tolerance: tol, lot: "caps" },
+    ],
+  };
+}
+
+const butterLimits = {
+  rules: [
+    { metric: "s21_db", from: 1e6, to: 70e6, min: -0.8, label: "passband" },
+    { metric: "s21_db", from: 200e6, to: 1e9, max: -17.5 },
+    { metric: "s11_db", from: 1e6, to: 40e6, max: -20 },
+    { metric: "ripple_db", from: 1e6, to: 70e6, max: 0.8 },
+    { metric: "gd_ns", from: 1e6, to: 50e6, max: 6 },
+  ],
+};
+
+const json = (x: unknown) => JSON.stringify(x);
+
+describe("determinism (in-process)", () => {
+  it("the same seed gives byte-identical results for any chunk size; another seed gives another sample", async () => {
+    const opts = { trials: 1200, seed: 77 };
+    const a = await runMonteCarlo(butterworth3(), butterLimits, opts, { chunkSize: 1200 });
+    const b = await runMonteCarlo(butterworth3(), butterLimits, opts, { chunkSize: 97 });
+    const c = await runMonteCarlo(butterworth3(), butterLimits, opts, { chunkSize: 500 });
+    expect(json(b)).toBe(json(a));
+    expect(json(c)).toBe(json(a));
+    const d = await runMonteCarlo(butterworth3(), butterLimits, { ...opts, seed: 78 });
+    expect(json(d.rules.map((r) => r.marginMean))).not.toBe(json(a.rules.map((r) => r.marginMean)));
+  });
+
+  it("stop when sure stops at a deterministic batch boundary that meets the half-width", async () => {
+    const target = 0.004;
+    const opts = { trials: 40_000, seed: "sure", targetHalfWidth: target, batchSize: 250 };
+    const a = await runMonteCarlo(butterworth3(), butterLimits, opts, { chunkSize: 250 });
+    const b = await runMonteCarlo(butterworth3(), butterLimits, opts, { chunkSize: 73 });
+    expect(b.trials).toBe(a.trials);
+    expect(json(b)).toBe(json(a));
+    expect(a.trials % 250).toBe(0);
+    expect(a.trials).toBeLessThan(40_000);
+    expect(a.trials).toBeGreaterThan(250);
+    expect(a.stop.stoppedEarly).toBe(true);
+    expect(a.halfWidth95).toBeLessThanOrEqual(target);
+    // one batch earlier the target was not met (trials 0..n−251 are the same trials in a shorter run)
+    const earlier = await runMonteCarlo(butterworth3(), butterLimits, { trials: a.trials - 250, seed: "sure" });
+    expect(wilsonHalfWidth(earlier.passed, earlier.trials)).toBeGreaterThan(target);
+  });
+});
