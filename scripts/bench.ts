@@ -49,7 +49,10 @@ const mb = (x: number) => `${(x / 2 ** 20).toFixed(0)} MB`;
 
 async function main(): Promise<void> {
   const t0 = performance.now();
-  console.log(`Lotwise bench — node ${process.version}, ${os.cpus()[0]?.model ?? "cpu"}, ${os.availableParallelism()} cores`);
+  const load = os.loadavg().map((x) => x.toFixed(1)).join(" / ");
+  console.log(`Lotwise bench — node ${process.version}, ${os.cpus()[0]?.model ?? "cpu"}, ${os.availableParallelism()} cores, load average ${load} (1/5/15 min)`);
+  console.log("Rates are point-solves per second: one point = every S_ij and group delay at one frequency of one trial.");
+  console.log("Worker scaling is only meaningful when the load average is below the core count.");
   const pool1 = createTrialPool({ size: 1 });
   const pool2 = createTrialPool({ size: 2 });
   try {
@@ -60,7 +63,7 @@ async function main(): Promise<void> {
   } finally {
     await Promise.all([pool1.close(), pool2.close()]);
   }
-  console.log(`\ntotal bench time ${((performance.now() - t0) / 1000).toFixed(1)} s`);
+  console.log(`\ntotal bench time ${((performance.now() - t0) / 1000).toFixed(1)} s, load average now ${os.loadavg()[0].toFixed(1)}`);
 }
 
 async function benchSystem(sys: System, pool1: ReturnType<typeof createTrialPool>, pool2: ReturnType<typeof createTrialPool>): Promise<void> {

@@ -8,7 +8,7 @@
 import { EngineError } from "./errors";
 import type { RunPlan } from "./run-plan";
 import type { RunSeed } from "./random";
-import { exactSumMerge, type ExactSum } from "./stats/exact-sum";
+import { exactSumCanonicalize, exactSumMerge, type ExactSum } from "./stats/exact-sum";
 import { addCounts, type HistogramEdges } from "./stats/histogram";
 
 /** Facts about the run shared by every chunk (from the plan), needed to finalize. */
@@ -118,15 +118,38 @@ export function mergeInto(target: TrialAggregate, b: TrialAggregate): void {
   target.passed += b.passed;
   for (let r = 0; r < target.ruleFailures.length; r++) {
     target.ruleFailures[r] += b.ruleFailures[r];
-    exactSumMerge(target.marginSum[r], b.marginSum[r]);
-    exactSumMerge(target.marginSumSq[r], b.marginSumSq[r]);
+    exactSumCanonicalize(exactSumMerge(target.marginSum[r], b.marginSum[r]));
+    exactSumCanonicalize(exactSumMerge(target.marginSumSq[r], b.marginSumSq[r]));
     target.marginMin[r] = Math.min(target.marginMin[r], b.marginMin[r]);
     target.marginMax[r] = Math.max(target.marginMax[r], b.marginMax[r]);
   }
   addCounts(target.marginCounts, b.marginCounts);
   addCounts(target.envelopeCounts, b.envelopeCounts);
   target.failing = Array.from(new Set([...target.failing, ...b.failing])).sort((x, y) => x - y).slice(0, target.meta.failingTrialCount);
-  target.sample = [...target.sample, ...b.sample].sort((x, y) => x.start - y.start);
+  target.sample = coalesceSegments([...target.sample, ...b.sample].sort((x, y) => x.start - y.start));
+}
+
+/**
+ * Joins touching sample segments into one, so a merged aggregate has the same form whatever the
+ * chunking (and canonical exact sums, see exactSumCanonicalize): its serialization is then identical too.
+ */
+function coalesceSegments(segments: SampleSegment[]): SampleSegment[] {
+  const out: SampleSegment[] = [];
+  for (const seg of segments) {
+    const last = out[out.length - 1];
+    if (last && last.start + last.count === seg.start) {
+      const deviations = new Float64Array(last.deviations.length + seg.deviations.length);
+      deviations.set(last.deviations);
+      deviations.set(seg.deviations, last.deviations.length);
+      const margins = new Float64Array(last.margins.length + seg.margins.length);
+      margins.set(last.margins);
+      margins.set(seg.margins, last.margins.length);
+      out[out.length - 1] = { start: last.start, count: last.count + seg.count, deviations, margins };
+    } else {
+      out.push(seg);
+    }
+  }
+  return out;
 }
 
 /**

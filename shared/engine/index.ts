@@ -24,7 +24,7 @@ export {
 } from "./aggregate";
 export { finalizeRun, ENVELOPE_PERCENTILES, type EnvelopeSeries, type RuleSummary, type RunResult } from "./result";
 export {
-  driveRun, evaluateTrials, planBatches, replayTrial, runMonteCarlo, runTrialChunk, validateChunkSize, DEFAULT_CHUNK_SIZE,
+  createChunkRunner, driveRun, evaluateTrials, planBatches, replayTrial, runMonteCarlo, runTrialChunk, validateChunkSize, DEFAULT_CHUNK_SIZE,
   type CancelFlag, type ChunkTask, type DriveOptions, type TrialReplay,
 } from "./monte-carlo";
 export { deserializeEngineError, serializeEngineError, type SerializedEngineError } from "./task-errors";

@@ -23,7 +23,7 @@ import { planRun, type RunPlan } from "./run-plan";
 import { evaluateMargins, evaluateMarginsDb, fillMagnitudeDb, magDb } from "./rules";
 import { sampleTrial } from "./sampling";
 import { sParamDeg } from "./solver";
-import { exactSumAdd } from "./stats/exact-sum";
+import { exactSumAdd, exactSumCanonicalize } from "./stats/exact-sum";
 import { histogramSlot } from "./stats/histogram";
 import { wilsonHalfWidth } from "./stats/intervals";
 
@@ -51,12 +51,38 @@ export interface ChunkTask {
 export function runTrialChunk(task: ChunkTask, cancel?: CancelFlag): TrialAggregate {
   if (typeof task !== "object" || task === null) throw new EngineError("INVALID_INPUT", "chunk task must be an object", { path: "task" });
   const plan = planRun(task.netlist, task.limits, task.options);
+  checkChunkRange(task, plan.options.trials);
+  return evaluateTrials(plan, task.start, task.count, cancel);
+}
+
+function checkChunkRange(task: ChunkTask, trials: number): void {
   const { start, count } = task;
   if (!Number.isInteger(start) || start < 0) throw new EngineError("INVALID_INPUT", "`start` must be an integer ≥ 0", { path: "start" });
-  if (!Number.isInteger(count) || count < 1 || start + count > plan.options.trials) {
+  if (!Number.isInteger(count) || count < 1 || start + count > trials) {
     throw new EngineError("INVALID_INPUT", "`count` must be an integer ≥ 1 with start + count ≤ trials", { path: "count" });
   }
-  return evaluateTrials(plan, start, count, cancel);
+}
+
+/**
+ * A chunk runner that compiles each run once: it keeps the plans of the last few runs (keyed by the
+ * run's netlist, limits and options), so the chunks of one run on one worker share the compiled
+ * netlist and sweep buffers. Not re-entrant (one chunk at a time, as in a worker thread).
+ * @param capacity runs kept (default 4)
+ */
+export function createChunkRunner(capacity = 4): (task: ChunkTask, cancel?: CancelFlag) => TrialAggregate {
+  const plans = new Map<string, RunPlan>();
+  return (task, cancel) => {
+    if (typeof task !== "object" || task === null) throw new EngineError("INVALID_INPUT", "chunk task must be an object", { path: "task" });
+    const key = JSON.stringify([task.netlist, task.limits, task.options]);
+    let plan = plans.get(key);
+    if (plan === undefined) {
+      plan = planRun(task.netlist, task.limits, task.options);
+      plans.set(key, plan);
+      if (plans.size > capacity) plans.delete(plans.keys().next().value as string);
+    }
+    checkChunkRange(task, plan.options.trials);
+    return evaluateTrials(plan, task.start, task.count, cancel);
+  };
 }
 
 /** The trial loop of a chunk on an already built plan. */
@@ -115,6 +141,10 @@ export function evaluateTrials(plan: RunPlan, start: number, count: number, canc
       segment.deviations.set(deviations, (t - start) * P);
       segment.margins.set(worst, (t - start) * R);
     }
+  }
+  for (let r = 0; r < R; r++) {
+    exactSumCanonicalize(agg.marginSum[r]);
+    exactSumCanonicalize(agg.marginSumSq[r]);
   }
   agg.trials = count;
   agg.ranges = [[start, start + count]];

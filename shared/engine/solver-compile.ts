@@ -46,6 +46,8 @@ export interface SolverPlan {
    * the step runs in real arithmetic on imaginary parts (a lossless LC section).
    */
   readonly pivotImag: Uint8Array;
+  /** 1 for slots that can hold a real part at some point; the others are purely imaginary throughout. */
+  readonly slotReal: Uint8Array;
   /** Ref of the first ideal inductor (a short at DC), or null. */
   readonly idealInductorRef: string | null;
 }
@@ -311,6 +313,7 @@ function buildPlan(netlist: Netlist, n: number, partNodeA: Int32Array, partNodeB
     updA: Int32Array.from(updA),
     updB: Int32Array.from(updB),
     pivotImag,
+    slotReal: realSlot,
     idealInductorRef: ideal ? ideal.ref : null,
   };
 }

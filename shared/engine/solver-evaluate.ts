@@ -17,11 +17,14 @@
  * as a flat loop over the block's frequencies (complex values interleaved re/im per frequency lane),
  * so index decoding is paid once per block, not once per point.
  *
- * When a static pivot is tiny against its row's admittance scale (|d|₁ ≤ 1e-6·Σ|y|₁ — an LC
+ * When a static pivot is small against its row's admittance scale (|d|₁ ≤ 1e-3·Σ|y|₁ — an LC
  * resonance can cancel a diagonal), that frequency is redone by dense Gaussian elimination with
  * partial pivoting (solver-dense.ts); if a pivot there is ≤ 1e-13 of its column scale the system is
- * singular and EngineError SINGULAR_MATRIX names the frequency. The static path's backward error is
- * then at most about ε/1e-6 ≈ 2e-10 relative.
+ * singular and EngineError SINGULAR_MATRIX names the frequency. Why 1e-3: a pivot of relative size
+ * ρ grows later entries by 1/ρ, so S carries ≈ ε/ρ and the derivative (through (1/d)' = −d'/d²)
+ * ≈ ε/ρ² relative error; ρ ≥ 1e-3 keeps group delay within ≈ 2e-10 (measured: a 3.6e-4 pivot cost
+ * 1e-9 in gd against the oracle). The fallback is rare: a grid point must land that close to a
+ * pivot's zero crossing.
  */
 import { EngineError } from "./errors";
 import { PARAM_C, PARAM_G, PARAM_GAMMA, PARAM_K, PARAM_L, PARAM_R, PARAM_STRIDE } from "./models";
@@ -132,6 +135,13 @@ export function stampTrial(ws: SweepWorkspace): void {
     slotG[portNode[p]] += portG[p];
     nodeSG[portNode[p]] += portG[p];
   }
+  // Real parts of purely imaginary slots are written by nothing in the block loop: zero them once.
+  const { val, der } = ws;
+  const { slotReal } = plan;
+  for (let s = 0; s < slotReal.length; s++) {
+    if (slotReal[s]) continue;
+    for (let q = 0; q < FREQ_BLOCK; q++) { val[2 * (s * FREQ_BLOCK + q)] = 0; der[2 * (s * FREQ_BLOCK + q)] = 0; }
+  }
 }
 
 /** Solve every frequency for the stamped trial and write ws.s and ws.gd. Allocates nothing. */
@@ -142,7 +152,7 @@ export function solveSweep(ws: SweepWorkspace): void {
 
 function solveBlock(ws: SweepWorkspace, f0: number, nq: number): void {
   const { plan, omega, invOmega, slotG, slotC, slotGam, nodeSG, nodeSC, nodeSGam, val, der, scale, params, nbL, nbLd, inv, invd, bad } = ws;
-  const { branchParts, partDiagA, partDiagB, partOff, pivotNode, nbStart, nbSlot, updStart, updTarget, updA, updB, pivotImag } = plan;
+  const { branchParts, partDiagA, partDiagB, partOff, pivotNode, nbStart, nbSlot, updStart, updTarget, updA, updB, pivotImag, slotReal } = plan;
   const B = FREQ_BLOCK;
   const slotCount = plan.slotCount;
   const n = plan.nodeCount;
@@ -151,6 +161,14 @@ function solveBlock(ws: SweepWorkspace, f0: number, nq: number): void {
   for (let s = 0; s < slotCount; s++) {
     const g = slotG[s], c = slotC[s], gm = slotGam[s];
     const o = 2 * s * B;
+    if (!slotReal[s]) {
+      for (let q = 0; q < nq; q++) {
+        const iw = invOmega[f0 + q];
+        val[o + 2 * q + 1] = omega[f0 + q] * c - iw * gm;
+        der[o + 2 * q + 1] = c + iw * iw * gm;
+      }
+      continue;
+    }
     for (let q = 0; q < nq; q++) {
       const iw = invOmega[f0 + q];
       val[o + 2 * q] = g;
@@ -248,10 +266,17 @@ function solveBlock(ws: SweepWorkspace, f0: number, nq: number): void {
     }
   }
   const m = plan.blockNodes.length;
-  if (m === 2) invertPortBlock2(ws, nq);
-  else for (let q = 0; q < nq; q++) if (!bad[q] && !invertPortBlockLane(ws, q)) bad[q] = 1;
-  for (let q = 0; q < nq; q++) if (bad[q]) denseSolvePoint(ws, f0 + q, q);
-  writeSParams(ws, f0, nq);
+  if (m === 2) {
+    invertPortBlock2(ws, f0, nq);
+  } else {
+    for (let q = 0; q < nq; q++) if (!bad[q] && !invertPortBlockLane(ws, q)) bad[q] = 1;
+    writeSParams(ws, f0, 0, nq, false);
+  }
+  for (let q = 0; q < nq; q++) {
+    if (!bad[q]) continue;
+    denseSolvePoint(ws, f0 + q, q);
+    writeSParams(ws, f0, q, q + 1, false);
+  }
 }
 
 /**
@@ -306,7 +331,7 @@ function eliminateReactive(ws: SweepWorkspace, t: number, nq: number): void {
  * Two distinct port nodes, all lanes: Z = [d −b; −b a]/(ad − b²) for the symmetric block [a b; b d],
  * and Z' = −Z·Yp'·Z written out. A lane whose determinant is tiny against a·d and b² is flagged.
  */
-function invertPortBlock2(ws: SweepWorkspace, nq: number): void {
+function invertPortBlock2(ws: SweepWorkspace, f0: number, nq: number): void {
   const { plan, val, der, zb, zbd, bad } = ws;
   const B = FREQ_BLOCK;
   const bs = plan.blockSlot;
@@ -340,11 +365,15 @@ function invertPortBlock2(ws: SweepWorkspace, nq: number): void {
     zb[o] = z11r; zb[o + 1] = z11i; zb[o + 2] = z12r; zb[o + 3] = z12i; zb[o + 4] = z12r; zb[o + 5] = z12i; zb[o + 6] = z22r; zb[o + 7] = z22i;
     zbd[o] = -d11r; zbd[o + 1] = -d11i; zbd[o + 2] = -d12r; zbd[o + 3] = -d12i; zbd[o + 4] = -d12r; zbd[o + 5] = -d12i; zbd[o + 6] = -d22r; zbd[o + 7] = -d22i;
   }
+  writeSParams(ws, f0, 0, nq, true);
 }
 
-/** S_ij and gd_ij for every lane from zb/zbd, for i ≤ j, mirrored (Z is symmetric: reciprocal network). */
-function writeSParams(ws: SweepWorkspace, f0: number, nq: number): void {
-  const { plan, zb, zbd, sFactor, s, gd } = ws;
+/**
+ * S_ij and gd_ij of lanes q0 ≤ q < q1 from zb/zbd, for i ≤ j, mirrored (Z is symmetric for a
+ * reciprocal network). With `skipBad`, lanes flagged for the dense fallback are left for later.
+ */
+function writeSParams(ws: SweepWorkspace, f0: number, q0: number, q1: number, skipBad: boolean): void {
+  const { plan, zb, zbd, sFactor, s, gd, bad } = ws;
   const p = ws.portCount;
   const m = plan.blockNodes.length;
   const mm = 2 * m * m;
@@ -355,7 +384,8 @@ function writeSParams(ws: SweepWorkspace, f0: number, nq: number): void {
       const zo = 2 * (bi * m + portBlock[j]);
       const kf = sFactor[i * p + j];
       const diag = i === j ? 1 : 0;
-      for (let q = 0; q < nq; q++) {
+      for (let q = q0; q < q1; q++) {
+        if (skipBad && bad[q]) continue;
         const o = q * mm + zo;
         const sr = kf * zb[o] - diag, si = kf * zb[o + 1];
         const dr = kf * zbd[o], di = kf * zbd[o + 1];

@@ -61,3 +61,23 @@ export function exactSumValue(partials: readonly number[]): number {
   }
   return hi;
 }
+
+/**
+ * Rewrites the partials in place into the canonical expansion of their exact value: v1 = the correctly
+ * rounded sum, v2 = the correctly rounded remainder, … (stored smallest first). The result depends on
+ * the exact value only, so two accumulators of the same numbers serialize identically whatever order
+ * they were added in. Each v_(k+1) is at most half an ulp of v_k, so the list stays non-overlapping.
+ */
+export function exactSumCanonicalize(partials: ExactSum): ExactSum {
+  const out: number[] = [];
+  for (let guard = 0; guard < 64 && partials.length > 0; guard++) {
+    const v = exactSumValue(partials);
+    if (v === 0) break;
+    out.push(v);
+    exactSumAdd(partials, -v);
+    while (partials.length > 0 && partials[partials.length - 1] === 0) partials.pop();
+  }
+  partials.length = 0;
+  for (let k = out.length - 1; k >= 0; k--) partials.push(out[k]);
+  return partials;
+}

@@ -1,5 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { runMonteCarlo } from "../../../shared/engine/monte-carlo";
+import { createAggregate, mergeInto } from "../../../shared/engine/aggregate";
+import { evaluateTrials, runMonteCarlo } from "../../../shared/engine/monte-carlo";
+import { planRun } from "../../../shared/engine/run-plan";
 import { wilsonHalfWidth } from "../../../shared/engine/stats/intervals";
 import type { Netlist } from "../../../shared/engine/netlist";
 
@@ -38,6 +40,19 @@ describe("determinism (in-process)", () => {
     expect(json(c)).toBe(json(a));
     const d = await runMonteCarlo(butterworth3(), butterLimits, { ...opts, seed: 78 });
     expect(json(d.rules.map((r) => r.marginMean))).not.toBe(json(a.rules.map((r) => r.marginMean)));
+  });
+
+  it("the merged aggregate itself serializes byte-identically for any chunking and merge order", () => {
+    const plan = planRun(butterworth3(), butterLimits, { trials: 900, seed: "agg" });
+    const run = (chunks: [number, number][]) => {
+      const total = createAggregate(plan);
+      for (const [s, c] of chunks) mergeInto(total, evaluateTrials(plan, s, c));
+      return JSON.stringify(total, (_, v) => (ArrayBuffer.isView(v) ? Array.from(v as Float64Array) : v));
+    };
+    const one = run([[0, 900]]);
+    expect(run([[0, 300], [300, 300], [600, 300]])).toBe(one);
+    expect(run([[600, 300], [0, 450], [450, 150]])).toBe(one);
+    expect(run([[0, 899], [899, 1]])).toBe(one);
   });
 
   it("stop when sure stops at a deterministic batch boundary that meets the half-width", async () => {

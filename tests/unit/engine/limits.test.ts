@@ -3,6 +3,7 @@ import { EngineError } from "../../../shared/engine/errors";
 import { buildFrequencyGrid } from "../../../shared/engine/frequency-grid";
 import { parseMetric, validateLimits } from "../../../shared/engine/limits";
 import { limitsSchema } from "../../../shared/schemas/limits";
+import { runOptionsSchema } from "../../../shared/schemas/run";
 
 function limitsError(limits: unknown, ports = 2): EngineError {
   try {
@@ -75,6 +76,18 @@ describe("limits validation (one test per message)", () => {
     expect(limitsSchema.safeParse({ rules: [{ metric: "foo", from: 1e6, to: 2e6, min: -1 }] }).success).toBe(false);
     expect(limitsSchema.safeParse({ rules: [{ metric: "s21_db", from: 1e6, to: 2e6 }] }).success).toBe(false);
     expect(limitsSchema.safeParse({ rules: [{ metric: "s21_db", from: 1e6, to: 2e6, max: -3, label: "x" }] }).success).toBe(true);
+  });
+});
+
+describe("run options schema (API/CLI edge)", () => {
+  it("accepts a full request's options and names bad fields", () => {
+    expect(runOptionsSchema.safeParse({ trials: 10000, seed: "lot-7", corners: [-40, 25, 85], targetHalfWidth: 0.01, sweep: { from: 1e6, to: 1e9, points: 201 } }).success).toBe(true);
+    const bad = runOptionsSchema.safeParse({ trials: 10, seed: 2 ** 31 });
+    expect(bad.success).toBe(false);
+    expect(bad.error?.issues[0].path).toEqual(["seed"]);
+    const sweep = runOptionsSchema.safeParse({ trials: 10, seed: 1, sweep: { from: 0, to: 1e9, points: 10 } });
+    expect(sweep.error?.issues[0].message).toMatch(/> 0 Hz for a log sweep/);
+    expect(runOptionsSchema.safeParse({ trials: 10, seed: 1, trails: 5 }).success).toBe(false); // strict: misspelt field
   });
 });
 

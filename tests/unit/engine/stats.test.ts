@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import jstatModule from "jstat";
 import { clopperPearsonInterval, wilsonHalfWidth, wilsonInterval } from "../../../shared/engine/stats/intervals";
-import { exactSumAdd, exactSumMerge, exactSumValue, type ExactSum } from "../../../shared/engine/stats/exact-sum";
+import { exactSumAdd, exactSumCanonicalize, exactSumMerge, exactSumValue, type ExactSum } from "../../../shared/engine/stats/exact-sum";
 import { histogramQuantile, histogramSlot } from "../../../shared/engine/stats/histogram";
 import { normalCdf, normalQuantile } from "../../../shared/engine/stats/normal";
 import { EngineError } from "../../../shared/engine/errors";
@@ -115,6 +115,9 @@ describe("exact summation", () => {
     xs.forEach((x, k) => exactSumAdd(k % 3 === 0 ? a : b, x));
     const merged = exactSumMerge(b.slice(), a);
     expect(exactSumValue(rev)).toBe(exactSumValue(whole));
+    // canonical expansions of the same exact value are identical lists
+    expect(exactSumCanonicalize(rev.slice())).toEqual(exactSumCanonicalize(merged.slice()));
+    expect(exactSumValue(exactSumCanonicalize(whole.slice()))).toBe(exactSumValue(whole));
     expect(exactSumValue(merged)).toBe(exactSumValue(whole));
     // [C] independent check with BigInt fixed point (all inputs are multiples of 2^-1100)
     const scaleExp = 1100n;
