@@ -109,7 +109,7 @@ export function parseTouchstone(text: string, options: TouchstoneParseOptions = 
   const reader = new Reader(portHint(options), hintSource(options));
   const lines = text.split(/\r\n|\n|\r/);
   for (let n = 0; n < lines.length && !reader.ended; n++) reader.readLine(lines[n], n + 1);
-  return reader.finish(lines.length);
+  return reader.finish();
 }
 
 /**
@@ -203,12 +203,12 @@ class Reader {
     this.dataLine(content, line);
   }
 
-  finish(lineCount: number): TouchstoneData {
+  finish(): TouchstoneData {
     const version = this.version ?? "1.1";
     const dec = this.decoder;
     if (dec === undefined || (dec.count === 0 && !dec.pending)) {
       const where = version === "2.0" ? " after [Network Data]" : "";
-      throw fileError(`the file has no network data${where}`, Math.max(1, this.lastLine || lineCount), "frequency");
+      throw fileError(`the file has no network data${where}`, Math.max(1, this.lastLine), "frequency");
     }
     dec.end();
     if (version === "2.0") {
