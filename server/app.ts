@@ -8,6 +8,10 @@ import { requireSameOrigin } from "./middlewares/origin";
 import { loadSession } from "./middlewares/session";
 import type { ApiRouter, RouteInfo } from "./routes/api-router";
 import { authRoutes } from "./routes/auth.routes";
+import { designsRoutes } from "./routes/designs.routes";
+import { limitsRoutes } from "./routes/limits.routes";
+import { reviewsRoutes } from "./routes/reviews.routes";
+import { runsRoutes } from "./routes/runs.routes";
 import { systemRoutes } from "./routes/system.routes";
 import { teamRoutes } from "./routes/team.routes";
 
@@ -22,7 +26,8 @@ export function createApp(ctx: AppContext): { app: Express; routes: RouteInfo[] 
   app.disable("x-powered-by");
   app.set("trust proxy", false);
 
-  const routers: ApiRouter[] = [systemRoutes(ctx), authRoutes(ctx), teamRoutes(ctx)];
+  // Order matters where paths overlap: reviewsRoutes' fixed paths (/runs, /runs/compare) come before runsRoutes' /runs/:id.
+  const routers: ApiRouter[] = [systemRoutes(ctx), authRoutes(ctx), teamRoutes(ctx), designsRoutes(ctx), limitsRoutes(ctx), reviewsRoutes(ctx), runsRoutes(ctx)];
   const api = express.Router();
   api.use(express.json({ limit: JSON_LIMIT }));
   api.use(requireSameOrigin(ctx.config.publicOrigin));

@@ -45,6 +45,8 @@ export interface Part {
   esl?: number;
   /** ppm/°C: value(T) = value·(1 + tempco·1e-6·(T − 25)). */
   tempco?: number;
+  /** Code of the part's tolerance grade in the team's grade catalogue (for BOM cost); the engine ignores it. */
+  grade?: string;
 }
 
 /** A filter netlist: at least two ports and the parts between them. */

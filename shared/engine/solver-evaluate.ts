@@ -74,6 +74,17 @@ export interface SweepWorkspace {
   readonly denseT: Float64Array;
   readonly s: Float64Array;
   readonly gd: Float64Array;
+  /**
+   * Elimination steps for the two-neighbour kernel ({@link solveChainBlock}), 7 entries per step:
+   * pivot slot, neighbour slots u1, u2 (−1 when the pivot has one neighbour), update targets
+   * (u1,u1), (u1,u2), (u2,u2) (−1 when absent), 1 for a purely reactive pivot; null when the
+   * plan does not qualify (see {@link chainSteps}).
+   */
+  readonly chain: Int32Array | null;
+  /** Per-frequency scratch of the two-neighbour kernel: slot values and derivatives [2·slot], node scales. */
+  readonly cv: Float64Array;
+  readonly cd: Float64Array;
+  readonly cs: Float64Array;
 }
 
 /** Allocate the workspace for a plan and a frequency list (Hz, already validated). */
@@ -110,7 +121,38 @@ export function createWorkspace(plan: SolverPlan, nodeNames: readonly string[], 
     gj: new Float64Array(4 * m * m), tb: new Float64Array(2 * m * m),
     denseY: new Float64Array(2 * n * n), denseYd: new Float64Array(2 * n * n), denseX: new Float64Array(2 * n * m), denseT: new Float64Array(2 * n),
     s: new Float64Array(2 * nf * p * p), gd: new Float64Array(nf * p * p),
+    chain: p === 2 ? chainSteps(plan) : null,
+    cv: new Float64Array(2 * plan.slotCount), cd: new Float64Array(2 * plan.slotCount), cs: new Float64Array(n),
   };
+}
+
+/**
+ * Step table of the two-neighbour kernel, or null when the plan does not qualify. It qualifies when
+ * there are two ports on two distinct nodes and every elimination step has one or two still-active
+ * neighbours. That holds for every ladder (low-, high-, band-pass and band-stop, shunt- or
+ * series-first, in any node numbering): a chain node always has the two chain neighbours left once its
+ * predecessors are gone (the fill-in joins it to the port at the chain's start, which is never
+ * eliminated), and the hidden node of a series resonator in a shunt arm has one.
+ */
+function chainSteps(plan: SolverPlan): Int32Array | null {
+  if (plan.blockNodes.length !== 2) return null;
+  const T = plan.pivotNode.length;
+  const out = new Int32Array(7 * T);
+  for (let t = 0; t < T; t++) {
+    const nb = plan.nbStart[t + 1] - plan.nbStart[t];
+    if (nb < 1 || nb > 2) return null;
+    const p0 = plan.nbStart[t], e0 = plan.updStart[t];
+    const o = 7 * t;
+    out[o] = plan.pivotNode[t];
+    out[o + 1] = plan.nbSlot[p0];
+    out[o + 2] = nb === 2 ? plan.nbSlot[p0 + 1] : -1;
+    // buildPlan lists the updates of a step as (x, y), x ≤ y: (0,0), then (0,1), (1,1) for two neighbours.
+    out[o + 3] = plan.updTarget[e0];
+    out[o + 4] = nb === 2 ? plan.updTarget[e0 + 1] : -1;
+    out[o + 5] = nb === 2 ? plan.updTarget[e0 + 2] : -1;
+    out[o + 6] = plan.pivotImag[t];
+  }
+  return out;
 }
 
 /**

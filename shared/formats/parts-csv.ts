@@ -26,7 +26,8 @@
  * below), so a capacitor above 10 pF with B/C/D gets a warning.
  *
  * CSV per RFC 4180: quoted fields with commas, line breaks and doubled quotes; CRLF or LF; a UTF-8
- * byte-order mark; blank lines and lines starting with `#` are skipped. Ports are not part of it.
+ * byte-order mark; blank lines and lines starting with `#` are skipped; spaces around unquoted cells
+ * are ignored (quoted cells are kept as written). Ports are not part of it.
  */
 import type { ESeriesName, Part, PartKind } from "../engine/netlist";
 import { formatSi, parseSi } from "../units";
@@ -97,7 +98,7 @@ export function parsePartsCsv(text: string): PartsCsvResult {
       throw fileError(`${rec.fields.length} fields but the header has ${columns.length} columns`, rec.line, "row");
     }
     const cells = new Map<PartsCsvColumn, string>();
-    columns.forEach((c, k) => cells.set(c, rec.fields[k].trim()));
+    columns.forEach((c, k) => cells.set(c, rec.fields[k]));
     const part = readPart(cells, rec.line, warnings);
     const first = seen.get(part.ref);
     if (first !== undefined) throw fileError(`duplicate ref "${part.ref}" (first on line ${first})`, rec.line, "ref");
@@ -291,7 +292,8 @@ function plainCell(text: string, line: number, field: PartsCsvColumn): number {
 
 /**
  * Split CSV text into records (RFC 4180), skipping blank lines and `#` comment lines; each record
- * carries the 1-based line it starts on.
+ * carries the 1-based line it starts on. Spaces around an unquoted field are dropped; a quoted
+ * field is kept as written.
  */
 function splitCsv(text: string): CsvRecord[] {
   const records: CsvRecord[] = [];
@@ -350,11 +352,11 @@ function splitCsv(text: string): CsvRecord[] {
         break;
       }
       if (i >= n || ch === "\r" || ch === "\n") {
-        fields.push(field);
+        fields.push(field.trim());
         break;
       }
       if (ch === ",") {
-        fields.push(field);
+        fields.push(field.trim());
         field = "";
       } else {
         field += ch;

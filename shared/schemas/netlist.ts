@@ -43,6 +43,7 @@ export const partSchema = z.strictObject({
   esr: nonNegative("esr").optional(),
   esl: nonNegative("esl").optional(),
   tempco: z.number({ message: "tempco must be a number" }).optional(),
+  grade: z.string().min(1).max(40, { message: "grade is at most 40 characters" }).optional(),
 });
 
 export const netlistSchema = z.object({

@@ -4,13 +4,17 @@ import { createBrowserRouter, Outlet, type LoaderFunction } from "react-router-d
 import { RouteError } from "@/components/errors/route-error";
 import { LoadingRegion } from "@/components/ui/spinner";
 import { paths } from "@/config/paths";
+import { designRoutes } from "@/app/routes/app/designs/routes";
+import { runRoutes } from "@/app/routes/app/runs/routes";
 
-type RouteModule = {
+export type RouteModule = {
   default: ComponentType;
   clientLoader?: (queryClient: QueryClient) => LoaderFunction;
 };
 
 /** Turns a route module (default component + optional `clientLoader(queryClient)`) into a lazy route. */
+export type RouteLoad = ReturnType<typeof convert>;
+
 function convert(queryClient: QueryClient) {
   return ({ default: Component, clientLoader }: RouteModule) =>
     clientLoader ? { Component, loader: clientLoader(queryClient) } : { Component };
@@ -41,6 +45,8 @@ export function createAppRouter(queryClient: QueryClient) {
           lazy: () => import("@/app/routes/app/root").then(load),
           children: [
             { index: true, lazy: () => import("@/app/routes/app/overview").then(load) },
+            ...designRoutes(load),
+            ...runRoutes(load),
             { path: paths.app.team.path, lazy: () => import("@/app/routes/app/team").then(load) },
             { path: paths.app.outbox.path, lazy: () => import("@/app/routes/app/outbox").then(load) },
             { path: "*", lazy: () => import("@/app/routes/not-found").then(load) },

@@ -10,6 +10,8 @@ import { useSignOut } from "@/features/auth/api/sign-out";
 import type { User } from "@/features/auth/api/types";
 import { HealthIndicator } from "@/features/health/components/health-indicator";
 import type { AppOutletContext } from "@/app/routes/app/app-context";
+import { designNavItems } from "@/app/routes/app/designs/routes";
+import { runNavItems } from "@/app/routes/app/runs/routes";
 
 /** Knows who is signed in before the frame renders, so there is no flash of the wrong page. */
 export const clientLoader = (queryClient: QueryClient) => async () => {
@@ -19,7 +21,7 @@ export const clientLoader = (queryClient: QueryClient) => async () => {
 
 /** Only the screens that work today; more join as they are built. */
 function navItemsFor(user: User): NavItem[] {
-  const items: NavItem[] = [{ name: "Overview", to: paths.app.overview.getHref(), end: true }];
+  const items: NavItem[] = [{ name: "Overview", to: paths.app.overview.getHref(), end: true }, ...designNavItems(user), ...runNavItems(user)];
   if (hasAnyRole(user.roles, ["admin"])) {
     items.push({ name: "Team", to: paths.app.team.getHref() });
     items.push({ name: "Outbox", to: paths.app.outbox.getHref() });

@@ -1,0 +1,8 @@
+import type { AppContext } from "../context";
+import { ApiRouter } from "./api-router";
+
+/** (being built) */
+export function limitsRoutes(ctx: AppContext): ApiRouter {
+  void ctx;
+  return new ApiRouter();
+}

@@ -1,0 +1,8 @@
+import type { AppContext } from "../context";
+import { ApiRouter } from "./api-router";
+
+/** (being built) */
+export function reviewsRoutes(ctx: AppContext): ApiRouter {
+  void ctx;
+  return new ApiRouter();
+}

@@ -1,0 +1,45 @@
+import request from "supertest";
+import type { User } from "../../../server/entities";
+import { inviteMember } from "../../../server/services/accounts";
+import { ORIGIN, TEST_PASSWORD, type TestContext } from "../../helpers/test-context";
+import type { SampleTable } from "./types";
+
+let seq = 0;
+
+async function openInvitationToken(t: TestContext, caller: User): Promise<string> {
+  const email = `token-${++seq}@lotwise.test`;
+  await inviteMember(t.ctx, caller, email, ["designer"]);
+  const mail = (await t.outbox()).find((m) => m.to.includes(email))!;
+  return mail.text.match(/invitation\/(\S+)/)![1];
+}
+
+export const foundationSamples: SampleTable = {
+  "get /health": async () => ({ path: "/api/health" }),
+  "get /outbox": async () => ({ path: "/api/outbox" }),
+  "get /auth/me": async () => ({ path: "/api/auth/me" }),
+  "post /auth/sign-in": async (t) => {
+    const u = await t.buildUser();
+    return { path: "/api/auth/sign-in", body: { email: u.email, password: TEST_PASSWORD } };
+  },
+  "post /auth/sign-out": async () => ({ path: "/api/auth/sign-out" }),
+  "get /auth/invitations/:token": async (t, caller) => ({ path: `/api/auth/invitations/${await openInvitationToken(t, caller)}` }),
+  "post /auth/accept-invitation": async (t, caller) => ({
+    path: "/api/auth/accept-invitation",
+    body: { token: await openInvitationToken(t, caller), name: "Invitee", password: "a long enough password" },
+  }),
+  "post /auth/request-reset": async () => ({ path: "/api/auth/request-reset", body: { email: "someone@lotwise.test" } }),
+  "post /auth/reset-password": async (t) => {
+    const u = await t.buildUser();
+    await request(t.app).post("/api/auth/request-reset").set("Origin", ORIGIN).send({ email: u.email }).expect(202);
+    const mail = (await t.outbox()).find((m) => m.to.includes(u.email))!;
+    return { path: "/api/auth/reset-password", body: { token: mail.text.match(/reset-password\/(\S+)/)![1], password: "a fresh long password" } };
+  },
+  "get /team/members": async () => ({ path: "/api/team/members" }),
+  "patch /team/members/:id": async (t) => ({ path: `/api/team/members/${(await t.buildUser()).id}`, body: { roles: ["analyst"] } }),
+  "get /team/invitations": async () => ({ path: "/api/team/invitations" }),
+  "post /team/invitations": async () => ({ path: "/api/team/invitations", body: { email: `inv-${++seq}@lotwise.test`, roles: ["designer"] } }),
+  "delete /team/invitations/:id": async (t, caller) => {
+    const inv = await inviteMember(t.ctx, caller, `revoke-${++seq}@lotwise.test`, ["planner"]);
+    return { path: `/api/team/invitations/${inv.id}` };
+  },
+};
