@@ -71,7 +71,7 @@ async function runTests(): Promise<number> {
   ensureDatabase(db, { ...creds, everything: true });
   build();
   mkdirSync(".tmp", { recursive: true });
-  const report = resolve(".tmp/vitest.json");
+  const report = resolve(port === 3308 ? ".tmp/vitest.json" : `.tmp/vitest-${port}.json`);
   const env = {
     ...process.env,
     NODE_ENV: "test",

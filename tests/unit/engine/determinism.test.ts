@@ -4,29 +4,8 @@ import { evaluateTrials, runMonteCarlo } from "../../../shared/engine/monte-carl
 import { planRun } from "../../../shared/engine/run-plan";
 import { wilsonHalfWidth } from "../../../shared/engine/stats/intervals";
 import type { Netlist } from "../../../shared/engine/netlist";
+import { butterLimits, butterworth3 } from "../../fixtures/butterworth3";
 
-// Same fixture as monte-carlo.test.ts (kept inline: test files do not import each other).
-/** 3rd-order Butterworth pi low-pass, 50 ohm, fc = 100 MHz (REFERENCES.md §3 [C]: 31.831 pF, 159.155 nH, 31.831 pF). */
-function butterworth3(tol = 0.05): Netlist {
-  return {
-    ports: [{ name: "in", node: "n1", z0: 50 }, { name: "out", node: "n2", z0: 50 }],
-    parts: [
-      { ref: "C1", kind: "C", nodes: ["n1", "gnd"], value: 31.831e-12, tolerance: tol, lot: "caps" },
-      { ref: "L2", kind: "L", nodes: ["n1", "n2"], value: 159.155e-9, tolerance: tol, tempco: 100 },
-      { ref: "C3", kind: "C", nodes: ["n2", "gnd"], value: 31.831e-12, tolerance: tol, lot: "caps" },
-    ],
-  };
-}
-
-const butterLimits = {
-  rules: [
-    { metric: "s21_db", from: 1e6, to: 70e6, min: -0.8, label: "passband" },
-    { metric: "s21_db", from: 200e6, to: 1e9, max: -17.5 },
-    { metric: "s11_db", from: 1e6, to: 40e6, max: -20 },
-    { metric: "ripple_db", from: 1e6, to: 70e6, max: 0.8 },
-    { metric: "gd_ns", from: 1e6, to: 50e6, max: 6 },
-  ],
-};
 
 const json = (x: unknown) => JSON.stringify(x);
 
