@@ -56,8 +56,12 @@ async function main(): Promise<void> {
   const pool1 = createTrialPool({ size: 1 });
   const pool2 = createTrialPool({ size: 2 });
   try {
-    // warm up both pools (thread start, tsx transform)
-    await Promise.all([pool1, pool2].map((p) => p.runMonteCarlo(systems[0].netlist, systems[0].limits, { trials: 200, seed: 0, sweep: systems[0].sweep })));
+    // Warm up every thread of both pools on both systems (thread start, tsx transform, JIT): with one
+    // warm-up chunk only one thread of the 2-worker pool would be warm, and its partner would start the
+    // timed run cold, which showed up as poor 2-worker scaling. Small chunks so every thread gets some.
+    for (const sys of systems) {
+      await Promise.all([pool1, pool2].map((p) => p.runMonteCarlo(sys.netlist, sys.limits, { trials: 800, seed: 0, sweep: sys.sweep }, { chunkSize: 100 })));
+    }
     for (const sys of systems) await benchSystem(sys, pool1, pool2);
     await benchMemory(pool2);
   } finally {

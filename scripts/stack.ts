@@ -6,6 +6,9 @@ import { createDataSource, openAndMigrate } from "../server/db/data-source";
 import { startServer } from "../server/index";
 import { startMailSink, type MailSink } from "../server/mail/mail-sink";
 import { DEMO_COMPANY, DEMO_PASSWORD, DEMO_PEOPLE, seedDemo } from "../server/seed/demo";
+import { seedDemoDesigns } from "../server/seed/demo-designs";
+import { seedDemoRuns } from "../server/seed/demo-runs";
+import { User } from "../server/entities";
 import { ensureDatabase, startMariaDb, type MariaDb } from "./mariadb";
 
 type Mode = "start" | "dev" | "test";
@@ -40,8 +43,12 @@ async function main(): Promise<number> {
   const ds = createDataSource(config.db, { poolSize: 3 });
   const ran = await openAndMigrate(ds);
   const added = await seedDemo(ds);
+  const users = ds.getRepository(User);
+  const designer = await users.findOneByOrFail({ email: demoEmail("designer") });
+  const planner = await users.findOneByOrFail({ email: demoEmail("planner") });
+  const demo = await seedDemoDesigns(ds, { designer: designer.id, planner: planner.id });
   cleanups.push(() => ds.destroy());
-  console.log(`lotwise: database ${config.db.name} ready (${ran} migration(s) applied, ${added} demo account(s) added)`);
+  console.log(`lotwise: database ${config.db.name} ready (${ran} migration(s) applied, ${added} demo account(s) and ${demo.designsAdded} demo design(s) added)`);
 
   if (!config.smtp.host) {
     const sink: MailSink = await startMailSink(ds, { port: config.smtp.sinkPort });
@@ -60,6 +67,8 @@ async function main(): Promise<number> {
   build();
   const server = await startServer(config);
   cleanups.push(() => server.close());
+  const queued = await seedDemoRuns(server.ctx, demo.designs, demoEmail("analyst"));
+  if (queued) console.log(`lotwise: ${queued} demo run(s) queued; they finish in the background`);
   printSignIns(`http://${config.host}:${config.port}`);
   return new Promise(() => undefined);
 }
@@ -118,6 +127,10 @@ function supervise(child: ChildProcess): void {
       void stopAll(1);
     }
   });
+}
+
+function demoEmail(role: string): string {
+  return DEMO_PEOPLE.find((p) => p.roles.includes(role as never))!.email;
 }
 
 function printSignIns(url: string): void {

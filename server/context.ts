@@ -4,6 +4,7 @@ import type { SignInLimiter } from "./auth/sign-in-limiter";
 import type { ServerConfig } from "./config/env";
 import type { Logger } from "./logger";
 import type { Mailer } from "./mail/mailer";
+import type { RunQueue } from "./services/run-queue";
 
 /** What every route and service may use; built once per server (and once per test database). */
 export interface AppContext {
@@ -13,4 +14,6 @@ export interface AppContext {
   mailer: Mailer;
   limiter: SignInLimiter;
   log: Logger;
+  /** Executes queued Monte Carlo runs on the server's trial pool (server/services/run-queue.ts). */
+  runQueue: RunQueue;
 }

@@ -3,21 +3,40 @@ import { createSignInLimiter } from "./auth/sign-in-limiter";
 import type { ServerConfig } from "./config/env";
 import type { AppContext } from "./context";
 import { createDataSource, openAndMigrate } from "./db/data-source";
+import { createTrialPool } from "./engine/trial-pool";
 import { createLogger, type Logger } from "./logger";
 import { createMailer } from "./mail/mailer";
+import { createRunQueue } from "./services/run-queue";
 
-/** Opens the database (applying migrations) and builds everything the routes use. */
-export async function createContext(config: ServerConfig, options: { log?: Logger } = {}): Promise<AppContext & { close(): Promise<void> }> {
+/**
+ * How many runs execute at once: LOTWISE_MAX_RUNNING (integer 1..64), default 1.
+ * @throws Error naming the variable when it is not such an integer
+ */
+export function maxRunningFromEnv(env: NodeJS.ProcessEnv = process.env): number {
+  const raw = env.LOTWISE_MAX_RUNNING;
+  if (raw === undefined || raw.trim() === "") return 1;
+  const n = Number(raw);
+  if (!Number.isInteger(n) || n < 1 || n > 64) throw new Error(`Lotwise settings are not valid:\n  LOTWISE_MAX_RUNNING: must be an integer 1..64 (got "${raw}")`);
+  return n;
+}
+
+/** Opens the database (applying migrations), builds everything the routes use and starts the run queue (re-queuing interrupted runs). */
+export async function createContext(config: ServerConfig, options: { log?: Logger; maxRunning?: number } = {}): Promise<AppContext & { close(): Promise<void> }> {
   const log = options.log ?? createLogger();
+  const maxRunning = options.maxRunning ?? maxRunningFromEnv();
   const dataSource = createDataSource(config.db);
   const ran = await openAndMigrate(dataSource);
   if (ran > 0) log.info("migrations_applied", { count: ran });
   const sessions = createSessionService(config.db, { secure: config.env === "production" });
   const mailer = createMailer(config);
-  const ctx: AppContext = { config, dataSource, sessions, mailer, limiter: createSignInLimiter(), log };
+  const pool = createTrialPool({ size: config.workers });
+  const runQueue = createRunQueue({ dataSource, mailer, log, config, pool, maxRunning });
+  const ctx: AppContext = { config, dataSource, sessions, mailer, limiter: createSignInLimiter(), log, runQueue };
+  await runQueue.start();
   return {
     ...ctx,
     async close() {
+      await runQueue.close();
       mailer.close();
       await sessions.close();
       await dataSource.destroy();

@@ -21,6 +21,14 @@ export const ERROR_CODES = {
   INTERNAL: 500,
   MAIL_FAILED: 502,
   DATABASE_UNAVAILABLE: 503,
+  // history, comments, review, grade sweeps (engineer H2)
+  REVIEW_STATE: 409,
+  // designs, revisions, uploads, limits and grades (engineer G)
+  REVISION_LOCKED: 409,
+  INVALID_FILE: 400,
+  GRADE_EXISTS: 409,
+  // runs, run queue and exports (engineer H1): cancelling a run that has already ended
+  RUN_FINISHED: 409,
 } as const;
 
 export type ErrorCode = keyof typeof ERROR_CODES;

@@ -1,10 +1,11 @@
 import type { Server } from "node:http";
 import { createApp } from "./app";
 import { loadConfig, type ServerConfig } from "./config/env";
+import type { AppContext } from "./context";
 import { createContext } from "./create-context";
 
 /** Starts the API and client server; resolves once it listens. */
-export async function startServer(config: ServerConfig): Promise<{ server: Server; close(): Promise<void> }> {
+export async function startServer(config: ServerConfig): Promise<{ server: Server; ctx: AppContext; close(): Promise<void> }> {
   const ctx = await createContext(config);
   const { app } = createApp(ctx);
   const server = await new Promise<Server>((resolve, reject) => {
@@ -14,6 +15,7 @@ export async function startServer(config: ServerConfig): Promise<{ server: Serve
   ctx.log.info("server_listening", { url: `http://${config.host}:${config.port}`, mail: ctx.mailer.mode });
   return {
     server,
+    ctx,
     async close() {
       await new Promise<void>((resolve) => server.close(() => resolve()));
       server.closeAllConnections();

@@ -104,6 +104,14 @@ export function evaluateTrials(plan: RunPlan, start: number, count: number, canc
   const env = agg.envelopeCounts;
   const cells = plan.pairs.length * F;
   const db = new Float64Array(cells);
+  // envMirror[cell of S_ji] = cell of S_ij for i < j (−1 otherwise): its bin is computed first (pairs are i-major).
+  const envMirror = new Int32Array(cells).fill(-1);
+  const envSlot = new Int32Array(cells);
+  plan.pairs.forEach((p, k) => {
+    if (p.i <= p.j) return;
+    const m = plan.pairs.findIndex((q) => q.i === p.j && q.j === p.i);
+    if (m >= 0 && m < k) for (let f = 0; f < F; f++) envMirror[k * F + f] = m * F + f;
+  });
   const invW = plan.marginEdges.map((e) => e.bins / (e.hi - e.lo));
   const sampleEnd = Math.min(start + count, sensitivitySampleSize);
   const segment: SampleSegment | null = start < sampleEnd
@@ -119,7 +127,15 @@ export function evaluateTrials(plan: RunPlan, start: number, count: number, canc
       fillMagnitudeDb(buf, db); // one log per pair and point, shared by the rules and the envelopes
       evaluateMarginsDb(db, buf, plan.rules, margins);
       for (let r = 0; r < R; r++) if (margins[r] < worst[r]) worst[r] = margins[r];
-      for (let cell = 0; cell < cells; cell++) env[cell * envStride + histogramSlot(envLo[cell], envInv, envBins, db[cell])]++;
+      for (let cell = 0; cell < cells; cell++) {
+        const mirror = envMirror[cell];
+        // S_ji of a reciprocal network: same |S| dB and same window as S_ij, hence the same bin.
+        const slot = mirror >= 0 && db[mirror] === db[cell] && envLo[mirror] === envLo[cell]
+          ? envSlot[mirror]
+          : histogramSlot(envLo[cell], envInv, envBins, db[cell]);
+        envSlot[cell] = slot;
+        env[cell * envStride + slot]++;
+      }
     }
     let pass = true;
     for (let r = 0; r < R; r++) {

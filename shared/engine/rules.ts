@@ -46,9 +46,19 @@ export function fillMagnitudeDb(buffers: SweepBuffers, db: Float64Array): void {
   const F = buffers.freqs.length;
   const s = buffers.s;
   for (let i = 0; i < P; i++) {
-    for (let j = 0; j < P; j++) {
-      const k = (i * P + j) * F;
-      for (let f = 0; f < F; f++) db[k + f] = magDb(s, ((f * P + i) * P + j) * 2);
+    const kii = (i * P + i) * F;
+    for (let f = 0; f < F; f++) db[kii + f] = magDb(s, ((f * P + i) * P + i) * 2);
+    for (let j = i + 1; j < P; j++) {
+      // The log is the costly part of a Monte Carlo trial. A reciprocal network has S_ji = S_ij, and
+      // the solver writes both from the same numbers, so |S_ji| dB is copied when the two entries are
+      // equal (then the logs would be equal too); anything else is computed on its own.
+      const kij = (i * P + j) * F, kji = (j * P + i) * F;
+      for (let f = 0; f < F; f++) {
+        const a = ((f * P + i) * P + j) * 2, b = ((f * P + j) * P + i) * 2;
+        const v = magDb(s, a);
+        db[kij + f] = v;
+        db[kji + f] = s[a] === s[b] && s[a + 1] === s[b + 1] ? v : magDb(s, b);
+      }
     }
   }
 }

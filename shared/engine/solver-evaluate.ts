@@ -76,14 +76,15 @@ export interface SweepWorkspace {
   readonly gd: Float64Array;
   /**
    * Elimination steps for the two-neighbour kernel ({@link solveChainBlock}), 7 entries per step:
-   * pivot slot, neighbour slots u1, u2 (−1 when the pivot has one neighbour), update targets
-   * (u1,u1), (u1,u2), (u2,u2) (−1 when absent), 1 for a purely reactive pivot; null when the
-   * plan does not qualify (see {@link chainSteps}).
+   * pivot node (= its diagonal slot), neighbour slots u1, u2 (−1 when the pivot has one neighbour),
+   * update targets (u1,u1), (u1,u2), (u2,u2) (−1 when absent), and 1 for a purely reactive pivot;
+   * null when the plan does not qualify (see {@link chainSteps}).
    */
   readonly chain: Int32Array | null;
-  /** Per-frequency scratch of the two-neighbour kernel: slot values and derivatives [2·slot], node scales. */
-  readonly cv: Float64Array;
-  readonly cd: Float64Array;
+  /** Per-trial slot sums interleaved [g, c, γ] at 3·slot (the two-neighbour kernel reads one array). */
+  readonly coef: Float64Array;
+  /** Per-frequency scratch of the two-neighbour kernel: [Re y, Im y, Re y', Im y'] at 4·slot; node scales. */
+  readonly cy: Float64Array;
   readonly cs: Float64Array;
 }
 
@@ -122,12 +123,12 @@ export function createWorkspace(plan: SolverPlan, nodeNames: readonly string[], 
     denseY: new Float64Array(2 * n * n), denseYd: new Float64Array(2 * n * n), denseX: new Float64Array(2 * n * m), denseT: new Float64Array(2 * n),
     s: new Float64Array(2 * nf * p * p), gd: new Float64Array(nf * p * p),
     chain: p === 2 ? chainSteps(plan) : null,
-    cv: new Float64Array(2 * plan.slotCount), cd: new Float64Array(2 * plan.slotCount), cs: new Float64Array(n),
+    coef: new Float64Array(3 * plan.slotCount), cy: new Float64Array(4 * plan.slotCount), cs: new Float64Array(n),
   };
 }
 
 /**
- * Step table of the two-neighbour kernel, or null when the plan does not qualify. It qualifies when
+ * Step table of the two-neighbour kernel (see SweepWorkspace.chain), or null when the plan does not qualify. It qualifies when
  * there are two ports on two distinct nodes and every elimination step has one or two still-active
  * neighbours. That holds for every ladder (low-, high-, band-pass and band-stop, shunt- or
  * series-first, in any node numbering): a chain node always has the two chain neighbours left once its
@@ -177,19 +178,173 @@ export function stampTrial(ws: SweepWorkspace): void {
     slotG[portNode[p]] += portG[p];
     nodeSG[portNode[p]] += portG[p];
   }
-  // Real parts of purely imaginary slots are written by nothing in the block loop: zero them once.
-  const { val, der } = ws;
-  const { slotReal } = plan;
-  for (let s = 0; s < slotReal.length; s++) {
-    if (slotReal[s]) continue;
-    for (let q = 0; q < FREQ_BLOCK; q++) { val[2 * (s * FREQ_BLOCK + q)] = 0; der[2 * (s * FREQ_BLOCK + q)] = 0; }
-  }
+  const coef = ws.coef;
+  for (let s = 0; s < slotG.length; s++) { coef[3 * s] = slotG[s]; coef[3 * s + 1] = slotC[s]; coef[3 * s + 2] = slotGam[s]; }
+  // The real parts of purely imaginary slots in ws.val / ws.der are written by nothing at all (not
+  // the block loop, not the kernels), so they keep the zeros of the fresh Float64Array: no per-trial reset.
 }
 
 /** Solve every frequency for the stamped trial and write ws.s and ws.gd. Allocates nothing. */
 export function solveSweep(ws: SweepWorkspace): void {
   const nf = ws.omega.length;
-  for (let f0 = 0; f0 < nf; f0 += FREQ_BLOCK) solveBlock(ws, f0, Math.min(FREQ_BLOCK, nf - f0));
+  for (let f0 = 0; f0 < nf; f0 += FREQ_BLOCK) {
+    const nq = Math.min(FREQ_BLOCK, nf - f0);
+    if (ws.chain === null || !solveChainBlock(ws, ws.chain, f0, nq)) solveBlock(ws, f0, nq);
+  }
+}
+
+/**
+ * Two-neighbour kernel: frequencies f0 ≤ f < f0 + nq of a 2-port plan whose every elimination step has
+ * one or two neighbours (every ladder, see {@link chainSteps}). It exists because for such small
+ * systems the op-list block loop spends most of its time on index decoding and on loads and stores
+ * of its lane arrays; here one frequency at a time runs straight through with the step pattern
+ * unrolled, slot values in a few-entry scratch that stays in L1, and the 2×2 port inversion and the
+ * S / group-delay write fused.
+ *
+ * It performs exactly the floating-point operations of solveBlock, eliminateReactive,
+ * invertPortBlock2 and writeSParams in the same order, so its output is bit-identical to theirs.
+ * Anything off the plain path (a shorted branch, a static pivot or port determinant below its
+ * threshold, a non-finite result) returns false without throwing: the caller then re-runs the whole
+ * block through solveBlock, which overwrites every lane of the block with the same values, does the
+ * dense fallback and raises the same errors as before, in the same order.
+ */
+function solveChainBlock(ws: SweepWorkspace, steps: Int32Array, f0: number, nq: number): boolean {
+  const { plan, omega, invOmega, slotG, slotC, slotGam, nodeSG, nodeSC, nodeSGam, params, coef, cy, cs, sFactor, s, gd } = ws;
+  const { branchParts, partDiagA, partDiagB, partOff, blockSlot } = plan;
+  const slotCount = plan.slotCount;
+  const n = plan.nodeCount;
+  const nsteps = steps.length;
+  const tol = STATIC_PIVOT_TOL;
+  const oa = 4 * blockSlot[0], ob = 4 * blockSlot[1], od = 4 * blockSlot[3];
+  const k11 = sFactor[0], k12 = sFactor[1], k22 = sFactor[3];
+  for (let f = f0; f < f0 + nq; f++) {
+    const w = omega[f], iw = invOmega[f], iw2 = iw * iw;
+    // Y = G + j(ωC − Γ/ω),  Y' = j(C + Γ/ω²)
+    // (slotG is exactly +0 on purely imaginary slots: only zero g's are ever added there.)
+    for (let sl = 0, o = 0, e = 0; sl < slotCount; sl++, o += 4, e += 3) {
+      const c = coef[e + 1], gm = coef[e + 2];
+      cy[o] = coef[e];
+      cy[o + 1] = w * c - iw * gm;
+      cy[o + 2] = 0;
+      cy[o + 3] = c + iw2 * gm;
+    }
+    for (let v = 0; v < n; v++) cs[v] = nodeSG[v] + w * nodeSC[v] + iw * nodeSGam[v];
+    // Series R-L-C branches, as in solveBlock.
+    for (let b = 0; b < branchParts.length; b++) {
+      const k = branchParts[b];
+      const po = k * PARAM_STRIDE;
+      const r = params[po + PARAM_R], l = params[po + PARAM_L], kc = params[po + PARAM_K];
+      let yr: number, yi: number, ydr: number, ydi: number;
+      if (w === 0 && kc > 0) {
+        yr = 0; yi = 0; ydr = 0; ydi = 1 / kc;
+      } else {
+        const zi = w * l - kc * iw;
+        const den = r * r + zi * zi;
+        if (!(den > 0)) return false;
+        const id = 1 / den;
+        yr = r * id;
+        yi = -zi * id;
+        const zpi = l + kc * iw * iw; // (kc·iw)·iw: not iw2
+        ydr = 2 * zpi * yr * yi;
+        ydi = -zpi * (yr * yr - yi * yi);
+      }
+      const mag = Math.abs(yr) + Math.abs(yi);
+      const da = partDiagA[k], db = partDiagB[k], off = partOff[k];
+      if (da >= 0) { const o = 4 * da; cy[o] += yr; cy[o + 1] += yi; cy[o + 2] += ydr; cy[o + 3] += ydi; cs[da] += mag; }
+      if (db >= 0) { const o = 4 * db; cy[o] += yr; cy[o + 1] += yi; cy[o + 2] += ydr; cy[o + 3] += ydi; cs[db] += mag; }
+      if (off >= 0) { const o = 4 * off; cy[o] -= yr; cy[o + 1] -= yi; cy[o + 2] -= ydr; cy[o + 3] -= ydi; }
+    }
+    // Elimination: pivot d, pivot-row entries u1 (u2), updates a(x,y) −= l_x·u_y with l = u/d.
+    for (let o = 0; o < nsteps; o += 7) {
+      const kd = steps[o], u1 = 4 * steps[o + 1], u2 = 4 * steps[o + 2], t11 = 4 * steps[o + 3];
+      const ko = 4 * kd;
+      if (steps[o + 6] === 1) {
+        // Purely reactive pivot (eliminateReactive): d = jb, u = jc, l = c/b real.
+        const b = cy[ko + 1];
+        if (!(Math.abs(b) > tol * cs[kd])) return false;
+        const ib = 1 / b;
+        const i1 = cy[ko + 3] * ib * ib;
+        const c1 = cy[u1 + 1], cp1 = cy[u1 + 3];
+        const l1 = c1 * ib, ld1 = cp1 * ib - c1 * i1;
+        cy[t11 + 1] -= l1 * c1;
+        cy[t11 + 3] -= ld1 * c1 + l1 * cp1;
+        if (u2 >= 0) {
+          const t12 = 4 * steps[o + 4], t22 = 4 * steps[o + 5];
+          const c2 = cy[u2 + 1], cp2 = cy[u2 + 3];
+          const l2 = c2 * ib, ld2 = cp2 * ib - c2 * i1;
+          cy[t12 + 1] -= l1 * c2;
+          cy[t12 + 3] -= ld1 * c2 + l1 * cp2;
+          cy[t22 + 1] -= l2 * c2;
+          cy[t22 + 3] -= ld2 * c2 + l2 * cp2;
+        }
+        continue;
+      }
+      const dr = cy[ko], di = cy[ko + 1];
+      if (!(Math.abs(dr) + Math.abs(di) > tol * cs[kd])) return false;
+      const id = 1 / (dr * dr + di * di);
+      const ir = dr * id, ii = -di * id;
+      const qr = ir * ir - ii * ii, qi = 2 * ir * ii;
+      const dpr = cy[ko + 2], dpi = cy[ko + 3];
+      const idr = dpi * qi - dpr * qr, idi = -(dpr * qi + dpi * qr);
+      const a1r = cy[u1], a1i = cy[u1 + 1], a1dr = cy[u1 + 2], a1di = cy[u1 + 3];
+      const l1r = a1r * ir - a1i * ii, l1i = a1r * ii + a1i * ir;
+      const l1dr = a1dr * ir - a1di * ii + a1r * idr - a1i * idi;
+      const l1di = a1dr * ii + a1di * ir + a1r * idi + a1i * idr;
+      cy[t11] -= l1r * a1r - l1i * a1i;
+      cy[t11 + 1] -= l1r * a1i + l1i * a1r;
+      cy[t11 + 2] -= l1dr * a1r - l1di * a1i + l1r * a1dr - l1i * a1di;
+      cy[t11 + 3] -= l1dr * a1i + l1di * a1r + l1r * a1di + l1i * a1dr;
+      if (u2 >= 0) {
+        const t12 = 4 * steps[o + 4], t22 = 4 * steps[o + 5];
+        const a2r = cy[u2], a2i = cy[u2 + 1], a2dr = cy[u2 + 2], a2di = cy[u2 + 3];
+        const l2r = a2r * ir - a2i * ii, l2i = a2r * ii + a2i * ir;
+        const l2dr = a2dr * ir - a2di * ii + a2r * idr - a2i * idi;
+        const l2di = a2dr * ii + a2di * ir + a2r * idi + a2i * idr;
+        cy[t12] -= l1r * a2r - l1i * a2i;
+        cy[t12 + 1] -= l1r * a2i + l1i * a2r;
+        cy[t12 + 2] -= l1dr * a2r - l1di * a2i + l1r * a2dr - l1i * a2di;
+        cy[t12 + 3] -= l1dr * a2i + l1di * a2r + l1r * a2di + l1i * a2dr;
+        cy[t22] -= l2r * a2r - l2i * a2i;
+        cy[t22 + 1] -= l2r * a2i + l2i * a2r;
+        cy[t22 + 2] -= l2dr * a2r - l2di * a2i + l2r * a2dr - l2i * a2di;
+        cy[t22 + 3] -= l2dr * a2i + l2di * a2r + l2r * a2di + l2i * a2dr;
+      }
+    }
+    // Port block [a b; b d] (invertPortBlock2): Z = [d −b; −b a]/(ad − b²), Z' = −Z·Yp'·Z.
+    const ar = cy[oa], ai = cy[oa + 1], br = cy[ob], bi = cy[ob + 1], dr = cy[od], di = cy[od + 1];
+    const adr = ar * dr - ai * di, adi = ar * di + ai * dr;
+    const bbr = br * br - bi * bi, bbi = 2 * br * bi;
+    const detr = adr - bbr, deti = adi - bbi;
+    if (!(Math.abs(detr) + Math.abs(deti) > tol * (Math.abs(adr) + Math.abs(adi) + Math.abs(bbr) + Math.abs(bbi)))) return false;
+    const id = 1 / (detr * detr + deti * deti);
+    const ir = detr * id, ii = -deti * id;
+    const z11r = dr * ir - di * ii, z11i = dr * ii + di * ir;
+    const z22r = ar * ir - ai * ii, z22i = ar * ii + ai * ir;
+    const z12r = bi * ii - br * ir, z12i = -(br * ii + bi * ir);
+    const par = cy[oa + 2], pai = cy[oa + 3], pbr = cy[ob + 2], pbi = cy[ob + 3], pdr = cy[od + 2], pdi = cy[od + 3];
+    const t11r = par * z11r - pai * z11i + pbr * z12r - pbi * z12i, t11i = par * z11i + pai * z11r + pbr * z12i + pbi * z12r;
+    const t12r = par * z12r - pai * z12i + pbr * z22r - pbi * z22i, t12i = par * z12i + pai * z12r + pbr * z22i + pbi * z22r;
+    const t21r = pbr * z11r - pbi * z11i + pdr * z12r - pdi * z12i, t21i = pbr * z11i + pbi * z11r + pdr * z12i + pdi * z12r;
+    const t22r = pbr * z12r - pbi * z12i + pdr * z22r - pdi * z22i, t22i = pbr * z12i + pbi * z12r + pdr * z22i + pdi * z22r;
+    const d11r = z11r * t11r - z11i * t11i + z12r * t21r - z12i * t21i, d11i = z11r * t11i + z11i * t11r + z12r * t21i + z12i * t21r;
+    const d12r = z11r * t12r - z11i * t12i + z12r * t22r - z12i * t22i, d12i = z11r * t12i + z11i * t12r + z12r * t22i + z12i * t22r;
+    const d22r = z12r * t12r - z12i * t12i + z22r * t22r - z22i * t22i, d22i = z12r * t12i + z12i * t12r + z22r * t22i + z22i * t22r;
+    // S and group delay (writeSParams): S_ij = k_ij·Z_ij − δij, S'_ij = k_ij·Z'_ij, gd = −Im(S'·conj S)/|S|².
+    const s11r = k11 * z11r - 1, s11i = k11 * z11i, e11r = k11 * -d11r, e11i = k11 * -d11i;
+    const s12r = k12 * z12r - 0, s12i = k12 * z12i, e12r = k12 * -d12r, e12i = k12 * -d12i;
+    const s22r = k22 * z22r - 1, s22i = k22 * z22i, e22r = k22 * -d22r, e22i = k22 * -d22i;
+    const m11 = s11r * s11r + s11i * s11i, m12 = s12r * s12r + s12i * s12i, m22 = s22r * s22r + s22i * s22i;
+    const g11 = m11 > 1e-280 ? (e11r * s11i - e11i * s11r) / m11 : 0;
+    const g12 = m12 > 1e-280 ? (e12r * s12i - e12i * s12r) / m12 : 0;
+    const g22 = m22 > 1e-280 ? (e22r * s22i - e22i * s22r) / m22 : 0;
+    if (!(Math.abs(s11r) + Math.abs(s11i) + Math.abs(g11) < Infinity && Math.abs(s12r) + Math.abs(s12i) + Math.abs(g12) < Infinity &&
+      Math.abs(s22r) + Math.abs(s22i) + Math.abs(g22) < Infinity)) return false;
+    const so = 8 * f, go = 4 * f;
+    s[so] = s11r; s[so + 1] = s11i; s[so + 2] = s12r; s[so + 3] = s12i;
+    s[so + 4] = s12r; s[so + 5] = s12i; s[so + 6] = s22r; s[so + 7] = s22i;
+    gd[go] = g11; gd[go + 1] = g12; gd[go + 2] = g12; gd[go + 3] = g22;
+  }
+  return true;
 }
 
 function solveBlock(ws: SweepWorkspace, f0: number, nq: number): void {

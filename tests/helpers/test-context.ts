@@ -10,11 +10,13 @@ import { createSignInLimiter } from "../../server/auth/sign-in-limiter";
 import { loadConfig, type ServerConfig } from "../../server/config/env";
 import type { AppContext } from "../../server/context";
 import { createDataSource, openAndMigrate } from "../../server/db/data-source";
+import { createTrialPool } from "../../server/engine/trial-pool";
 import { OutboxMessage, User } from "../../server/entities";
 import { createLogger } from "../../server/logger";
 import { startMailSink } from "../../server/mail/mail-sink";
 import { createMailer } from "../../server/mail/mailer";
 import type { RouteInfo } from "../../server/routes/api-router";
+import { createRunQueue } from "../../server/services/run-queue";
 import type { Role } from "../../shared/roles";
 
 export const TEST_PASSWORD = "correct horse battery staple";
@@ -40,7 +42,9 @@ let counter = 0;
  * A private database for one test file (created, migrated, dropped at close), a mail stand-in on a free loopback
  * port storing into it, and the real Express app over it. Needs the test MariaDB that `npm test` starts.
  */
-export async function createTestContext(options: { limiter?: Parameters<typeof createSignInLimiter>[0] } = {}): Promise<TestContext> {
+export async function createTestContext(
+  options: { limiter?: Parameters<typeof createSignInLimiter>[0]; /** runs at once (default 1) */ maxRunning?: number; /** trial pool threads (default 1) */ poolSize?: number } = {},
+): Promise<TestContext> {
   if (!process.env.LOTWISE_TEST_DB_READY) throw new Error("The integration tests need the test MariaDB: run them through `npm test`.");
   const base = loadConfig(process.env);
   const name = `lotwise_t_${process.pid}_${++counter}_${randomBytes(3).toString("hex")}`;
@@ -55,7 +59,11 @@ export async function createTestContext(options: { limiter?: Parameters<typeof c
   config.smtp.sinkPort = sink.port;
   const sessions = createSessionService(config.db, { secure: false });
   const mailer = createMailer(config);
-  const ctx: AppContext = { config, dataSource, sessions, mailer, limiter: createSignInLimiter(options.limiter), log: createLogger("silent") };
+  const log = createLogger("silent");
+  // A small pool (one thread unless asked; started on the first run) and a queue that starts at once, so a POSTed run completes.
+  const runQueue = createRunQueue({ dataSource, mailer, log, config, pool: () => createTrialPool({ size: options.poolSize ?? 1 }), maxRunning: options.maxRunning ?? 1 });
+  const ctx: AppContext = { config, dataSource, sessions, mailer, limiter: createSignInLimiter(options.limiter), log, runQueue };
+  await runQueue.start();
   const { app, routes } = createApp(ctx);
 
   const buildUser: TestContext["buildUser"] = async (o = {}) => {
@@ -85,6 +93,7 @@ export async function createTestContext(options: { limiter?: Parameters<typeof c
     },
     outbox: () => dataSource.getRepository(OutboxMessage).find({ order: { receivedAt: "DESC" } }),
     async close() {
+      await runQueue.close();
       mailer.close();
       await sink.close();
       await sessions.close();

@@ -1,0 +1,98 @@
+import { randomUUID } from "node:crypto";
+import { In } from "typeorm";
+import type { AuthUser } from "../auth/sessions";
+import type { AppContext } from "../context";
+import { Design, DesignRevision, ReviewEvent, Run, RunComment, User } from "../entities";
+import type { ReviewState } from "../entities/design-revision.entity";
+import { AppError, notFound } from "../errors";
+import type { OutgoingMail } from "../mail/mailer";
+import { reviewDecidedMail, reviewRequestedMail } from "../mail/review-messages";
+import { presentComment, presentReviewEvent } from "../presenters/review.presenter";
+import type { ReviewAction, ReviewActionInput } from "../../shared/schemas/review";
+import type { Role } from "../../shared/roles";
+
+/**
+ * A revision's review: draft → in-review (a designer asks) → approved | changes-requested (only a reviewer
+ * decides); changes-requested → in-review again when the designer asks anew. Approved is final for that
+ * revision (changes go into a new revision).
+ */
+export const REVIEW_TRANSITIONS: Record<ReviewAction, { role: Role; from: readonly ReviewState[]; to: ReviewState; verb: string }> = {
+  request: { role: "designer", from: ["draft", "changes-requested"], to: "in-review", verb: "ask for a review" },
+  approve: { role: "reviewer", from: ["in-review"], to: "approved", verb: "approve" },
+  "request-changes": { role: "reviewer", from: ["in-review"], to: "changes-requested", verb: "request changes" },
+};
+
+export async function listComments(ctx: AppContext, runId: string) {
+  if (!(await ctx.dataSource.getRepository(Run).existsBy({ id: runId }))) throw notFound("That run");
+  const comments = await ctx.dataSource.getRepository(RunComment).find({ where: { runId }, relations: { author: true }, order: { createdAt: "ASC" } });
+  return comments.map(presentComment);
+}
+
+export async function addComment(ctx: AppContext, author: AuthUser, runId: string, body: string) {
+  if (!(await ctx.dataSource.getRepository(Run).existsBy({ id: runId }))) throw notFound("That run");
+  const repo = ctx.dataSource.getRepository(RunComment);
+  const id = randomUUID();
+  await repo.insert({ id, runId, authorId: author.id, body });
+  return presentComment(await repo.findOneOrFail({ where: { id }, relations: { author: true } }));
+}
+
+/** The revision's review state and its history, oldest step first. */
+export async function getReview(ctx: AppContext, revisionId: string) {
+  const revision = await ctx.dataSource.getRepository(DesignRevision).findOneBy({ id: revisionId });
+  if (!revision) throw notFound("That revision");
+  const events = await ctx.dataSource.getRepository(ReviewEvent).find({ where: { revisionId }, relations: { actor: true }, order: { createdAt: "ASC" } });
+  return { reviewState: revision.reviewState, events: events.map(presentReviewEvent) };
+}
+
+/**
+ * Applies a review action: the action's own role (403), then the state (409 REVIEW_STATE), both checked under a
+ * row lock so two reviewers cannot both decide; the step is stored as a review_event in the same transaction.
+ * Afterwards mails the people involved (a mail that fails is logged; the step stands).
+ */
+export async function applyReviewAction(ctx: AppContext, actor: AuthUser, revisionId: string, input: ReviewActionInput) {
+  const rule = REVIEW_TRANSITIONS[input.action];
+  if (!actor.roles.includes(rule.role)) {
+    throw new AppError("FORBIDDEN", `Only a ${rule.role} can ${rule.verb}${rule.role === "reviewer" ? " a revision" : ""}.`);
+  }
+  const comment = input.comment ?? "";
+  const revision = await ctx.dataSource.transaction(async (m) => {
+    const rev = await m.getRepository(DesignRevision).findOne({ where: { id: revisionId }, lock: { mode: "pessimistic_write" } });
+    if (!rev) throw notFound("That revision");
+    if (!rule.from.includes(rev.reviewState)) {
+      throw new AppError("REVIEW_STATE", `This revision is ${rev.reviewState}; to ${rule.verb} it must be ${rule.from.join(" or ")}.`);
+    }
+    await m.getRepository(DesignRevision).update({ id: rev.id }, { reviewState: rule.to });
+    await m.getRepository(ReviewEvent).insert({ id: randomUUID(), revisionId: rev.id, actorId: actor.id, fromState: rev.reviewState, toState: rule.to, comment });
+    return rev;
+  });
+  await mailPeopleInvolved(ctx, actor, revision, input.action, comment);
+  return getReview(ctx, revisionId);
+}
+
+async function mailPeopleInvolved(ctx: AppContext, actor: AuthUser, revision: DesignRevision, action: ReviewAction, comment: string): Promise<void> {
+  const users = ctx.dataSource.getRepository(User);
+  const design = await ctx.dataSource.getRepository(Design).findOneByOrFail({ id: revision.designId });
+  const names = {
+    designName: design.name,
+    revisionNumber: revision.number,
+    link: `${ctx.config.publicOrigin}/designs/${design.id}?revision=${encodeURIComponent(revision.id)}`,
+  };
+  let mails: OutgoingMail[];
+  if (action === "request") {
+    const reviewers = (await users.findBy({ active: true })).filter((u) => u.roles.includes("reviewer") && u.id !== actor.id);
+    mails = reviewers.map((u) => reviewRequestedMail({ ...names, to: u.email, requestedBy: actor.name, comment }));
+  } else {
+    const lastRequest = await ctx.dataSource.getRepository(ReviewEvent).findOne({ where: { revisionId: revision.id, toState: "in-review" }, order: { createdAt: "DESC" } });
+    const ids = [...new Set([revision.createdById, lastRequest?.actorId].filter((id): id is string => Boolean(id) && id !== actor.id))];
+    const people = ids.length ? await users.findBy({ id: In(ids), active: true }) : [];
+    const decision = REVIEW_TRANSITIONS[action].to as "approved" | "changes-requested";
+    mails = people.map((u) => reviewDecidedMail({ ...names, to: u.email, reviewer: actor.name, decision, comment }));
+  }
+  for (const mail of mails) {
+    try {
+      await ctx.mailer.send(mail);
+    } catch (error) {
+      ctx.log.error("mail_failed", { kind: `review_${action}`, message: (error as Error).message });
+    }
+  }
+}
