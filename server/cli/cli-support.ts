@@ -5,6 +5,7 @@
 import { readFileSync } from "node:fs";
 import { EngineError } from "../../shared/engine/errors";
 import { parseSi } from "../../shared/units";
+import { fieldPath } from "../../shared/schemas/field-path";
 
 /** A mistake in how the command was called (exit code 2). */
 export class CliUsageError extends Error {}
@@ -80,7 +81,7 @@ export function checkWithSchema<T>(schema: { safeParse(v: unknown): { success: t
   const res = schema.safeParse(value);
   if (res.success) return res.data;
   const issue = res.error.issues[0];
-  const path = issue.path.map((p) => (typeof p === "number" ? `[${p}]` : `.${String(p)}`)).join("").replace(/^\./, "");
+  const path = fieldPath(issue.path);
   throw new CliInputError(`${label}${path ? ` ${path}` : ""}: ${issue.message}`);
 }
 

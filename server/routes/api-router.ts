@@ -3,6 +3,7 @@ import type { z } from "zod";
 import type { AuthUser } from "../auth/sessions";
 import { AppError } from "../errors";
 import { hasAnyRole, type Role } from "../../shared/roles";
+import { fieldPath } from "../../shared/schemas/field-path";
 
 /** Who may call a route: anyone, any signed-in person, or holders of at least one of the roles. */
 export type Access = "public" | "signed-in" | readonly Role[];
@@ -74,7 +75,7 @@ export function parseInput<T>(schema: z.ZodType<T>, value: unknown, where: "body
   if (parsed.success) return parsed.data;
   const fields: Record<string, string> = {};
   for (const issue of parsed.error.issues) {
-    const path = issue.path.length ? issue.path.map(String).join(".") : where;
+    const path = issue.path.length ? fieldPath(issue.path) : where;
     fields[path] ??= issue.message;
   }
   const [firstPath, firstMessage] = Object.entries(fields)[0];

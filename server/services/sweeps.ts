@@ -57,7 +57,7 @@ export function sweepTable(targetYield: number, runs: Run[]): { rows: SweepRow[]
 
 /**
  * Checks every assignment before anything is stored: each part ref exists in the revision and each grade code
- * exists in the catalogue for that part's kind (400 naming `assignments.i.gradeOverrides.REF`).
+ * exists in the catalogue for that part's kind (400 naming `assignments[i].gradeOverrides.REF`).
  */
 async function checkAssignments(ctx: AppContext, revision: DesignRevision, assignments: CreateSweepInput["assignments"]): Promise<void> {
   const kinds = new Map(revision.netlist.parts.map((p) => [p.ref, p.kind]));
@@ -68,7 +68,7 @@ async function checkAssignments(ctx: AppContext, revision: DesignRevision, assig
   assignments.forEach((a, i) => {
     for (const [ref, code] of Object.entries(a.gradeOverrides)) {
       const kind = kinds.get(ref);
-      const path = `assignments.${i}.gradeOverrides.${ref}`;
+      const path = `assignments[${i}].gradeOverrides.${ref}`;
       if (!kind) fields[path] = `revision r${revision.number} has no part ${ref}`;
       else if (!known.has(`${kind}:${code}`)) fields[path] = `no ${kind} grade "${code}" in the catalogue`;
     }

@@ -8,6 +8,7 @@ import type { Request, Response } from "express";
 import multer from "multer";
 import { AppError } from "../errors";
 import { isFormatError } from "../../shared/formats/format-error";
+import { fieldPath } from "../../shared/schemas/field-path";
 
 // VARIABLES //
 
@@ -113,9 +114,7 @@ export function lineOf(lines: Map<string, number>, path: string): number | undef
 }
 
 /** A zod issue path as an engine-style path: ["parts", 2, "value"] → "parts[2].value". */
-export function pathText(path: readonly PropertyKey[]): string {
-  return path.reduce<string>((acc, key) => (typeof key === "number" ? `${acc}[${key}]` : acc ? `${acc}.${String(key)}` : String(key)), "");
-}
+export const pathText = fieldPath;
 
 // HELPERS //
 

@@ -38,7 +38,9 @@ type Method = "GET" | "POST" | "PATCH" | "PUT" | "DELETE";
 
 async function request<T>(method: Method, path: string, body?: unknown): Promise<T> {
   const headers: Record<string, string> = { Accept: "application/json" };
-  if (body !== undefined) headers["Content-Type"] = "application/json";
+  // FormData goes as multipart (the browser sets the boundary); anything else as JSON.
+  const multipart = body instanceof FormData;
+  if (body !== undefined && !multipart) headers["Content-Type"] = "application/json";
 
   let response: Response;
   try {
@@ -46,7 +48,7 @@ async function request<T>(method: Method, path: string, body?: unknown): Promise
       method,
       headers,
       credentials: "same-origin",
-      body: body === undefined ? undefined : JSON.stringify(body),
+      body: body === undefined ? undefined : multipart ? body : JSON.stringify(body),
     });
   } catch {
     throw new ApiError(0, "NETWORK_ERROR", "Could not reach the Lotwise server. Check the connection and try again.");
@@ -66,6 +68,14 @@ export const api = {
   get: <T>(path: string) => request<T>("GET", path),
   post: <T>(path: string, body?: unknown) => request<T>("POST", path, body ?? {}),
   patch: <T>(path: string, body: unknown) => request<T>("PATCH", path, body),
+  put: <T>(path: string, body: unknown) => request<T>("PUT", path, body),
+  /** multipart/form-data POST: a `file` field plus text fields. */
+  upload: <T>(path: string, file: File, fields: Record<string, string> = {}) => {
+    const form = new FormData();
+    for (const [k, v] of Object.entries(fields)) form.append(k, v);
+    form.append("file", file);
+    return request<T>("POST", path, form);
+  },
   delete: <T = void>(path: string) => request<T>("DELETE", path),
 };
 

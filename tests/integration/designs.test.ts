@@ -82,7 +82,7 @@ describe("designs", () => {
     netlist.parts[1].value = -1;
     const shape = await designer.agent.post("/api/designs").set("Origin", ORIGIN).send({ name: "", netlist, stress: "loud" }).expect(400);
     expect(shape.body.error.code).toBe("VALIDATION_FAILED");
-    expect(shape.body.error.fields).toMatchObject({ name: "name is required", stress: expect.any(String), "netlist.parts.1.value": "value must be > 0" });
+    expect(shape.body.error.fields).toMatchObject({ name: "name is required", stress: expect.any(String), "netlist.parts[1].value": "value must be > 0" });
     const dup = sampleNetlist();
     dup.parts[2].ref = "C1";
     const semantic = await designer.agent.post("/api/designs").set("Origin", ORIGIN).send({ name: "Dup", netlist: dup }).expect(400);

@@ -94,7 +94,7 @@ describe("run history", () => {
       ["?page=1.5", "query.page"],
       ["?sort=cost", "query.sort"],
       ["?dir=up", "query.dir"],
-      ["?state=done,lost", "query.state.1"],
+      ["?state=done,lost", "query.state[1]"],
       ["?from=yesterday", "query.from"],
       ["?to=2025-02-30T25:00:00Z", "query.to"],
       ["?minYield=1.2", "query.minYield"],
@@ -122,10 +122,10 @@ describe("compare", () => {
   it("answers 400 for fewer than 2, more than 6, repeated or malformed ids, and 404 for an unknown run", async () => {
     const two = `${runs.a.id},${runs.b.id}`;
     expect((await get(`/compare?ids=${runs.a.id}`).expect(400)).body.error.message).toBe("query.ids: needs at least 2 runs");
-    expect((await get(`/compare?ids=${[two, two, two, runs.c.id].join(",")}`).expect(400)).body.error.fields).toHaveProperty("query.ids");
+    expect((await get(`/compare?ids=${[two, two, two, runs.c.id].join(",")}`).expect(400)).body.error.fields).toHaveProperty(["query.ids"]);
     expect((await get(`/compare?ids=${runs.a.id},${runs.a.id}`).expect(400)).body.error.message).toBe("query.ids: must not repeat a run");
-    expect((await get(`/compare?ids=${runs.a.id},nope`).expect(400)).body.error.fields).toHaveProperty("query.ids.1");
-    expect((await get("/compare").expect(400)).body.error.fields).toHaveProperty("query.ids");
+    expect((await get(`/compare?ids=${runs.a.id},nope`).expect(400)).body.error.fields).toHaveProperty(["query.ids[1]"]);
+    expect((await get("/compare").expect(400)).body.error.fields).toHaveProperty(["query.ids"]);
     const unknown = "3b241101-e2bb-4255-8caf-4136c566a962";
     const res = await get(`/compare?ids=${two},${unknown}`).expect(404);
     expect(res.body.error.message).toContain(unknown);

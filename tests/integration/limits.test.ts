@@ -43,7 +43,7 @@ describe("limit sets", () => {
     const shape = await post({ name: "", lotSize: 0, limits: { rules: [{ metric: "s21_db", from: 2e6, to: 1e6, min: -1 }, { metric: "volume", from: 1, to: 2 }] } }).expect(400);
     expect(shape.body.error.code).toBe("VALIDATION_FAILED");
     expect(shape.body.error.fields).toMatchObject({
-      name: "name is required", lotSize: "lotSize must be ≥ 1", "limits.rules.0.to": "band must have from < to", "limits.rules.1.metric": expect.stringMatching(/^unknown metric/),
+      name: "name is required", lotSize: "lotSize must be ≥ 1", "limits.rules[0].to": "band must have from < to", "limits.rules[1].metric": expect.stringMatching(/^unknown metric/),
     });
     // the sample design is a two-port: a rule on S31 names a port it does not have
     const ports = await post({ name: "Three ports", lotSize: 10, limits: { rules: [sampleLimits().rules[0], { metric: "s31_db", from: 1e6, to: 2e6, max: -20 }] } }).expect(400);

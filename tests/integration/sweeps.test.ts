@@ -123,10 +123,10 @@ describe("launching a grade sweep", () => {
       [{ ...base(), targetYield: 1.5, assignments: [assign("a", "C-5", "L-5")] }, "targetYield"],
       [{ ...base(), trials: 0, assignments: [assign("a", "C-5", "L-5")] }, "trials"],
       [{ ...base(), seed: -1, assignments: [assign("a", "C-5", "L-5")] }, "seed"],
-      [{ ...base(), assignments: [{ label: "", gradeOverrides: {} }] }, "assignments.0.label"],
-      [{ ...base(), assignments: [assign("a", "C-5", "L-5"), { label: "b", gradeOverrides: { X9: "C-1" } }] }, "assignments.1.gradeOverrides.X9"],
-      [{ ...base(), assignments: [{ label: "a", gradeOverrides: { C1: "C-0.1" } }] }, "assignments.0.gradeOverrides.C1"],
-      [{ ...base(), assignments: [{ label: "a", gradeOverrides: { L2: "C-1" } }] }, "assignments.0.gradeOverrides.L2"],
+      [{ ...base(), assignments: [{ label: "", gradeOverrides: {} }] }, "assignments[0].label"],
+      [{ ...base(), assignments: [assign("a", "C-5", "L-5"), { label: "b", gradeOverrides: { X9: "C-1" } }] }, "assignments[1].gradeOverrides.X9"],
+      [{ ...base(), assignments: [{ label: "a", gradeOverrides: { C1: "C-0.1" } }] }, "assignments[0].gradeOverrides.C1"],
+      [{ ...base(), assignments: [{ label: "a", gradeOverrides: { L2: "C-1" } }] }, "assignments[0].gradeOverrides.L2"],
       [{ ...base(), limitSetId: other.limitSet.id, assignments: [assign("a", "C-5", "L-5")] }, "limitSetId"],
     ];
     for (const [body, field] of cases) {
@@ -134,7 +134,7 @@ describe("launching a grade sweep", () => {
       expect({ field, status: res.status, fields: Object.keys(res.body.error?.fields ?? {}) }).toEqual({ field, status: 400, fields: [field] });
     }
     const wrongKind = await postSweep(analyst.agent, { ...base(), assignments: [{ label: "a", gradeOverrides: { L2: "C-1" } }] });
-    expect(wrongKind.body.error.message).toBe('assignments.0.gradeOverrides.L2: no L grade "C-1" in the catalogue');
+    expect(wrongKind.body.error.message).toBe('assignments[0].gradeOverrides.L2: no L grade "C-1" in the catalogue');
     await postSweep(analyst.agent, { ...base(), revisionId: randomUUID(), assignments: [assign("a", "C-5", "L-5")] }).expect(404);
     expect(await t.ctx.dataSource.getRepository(GradeSweep).count()).toBe(sweepsBefore);
     expect(await t.ctx.dataSource.getRepository(Run).count()).toBe(runsBefore);

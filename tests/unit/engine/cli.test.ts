@@ -37,7 +37,8 @@ function cli(args: string[], opts: { bin?: boolean; stdin?: string } = {}): Prom
   });
 }
 
-describe.concurrent("lotwise CLI", () => {
+// Sequential, with room to spare: each test spawns tsx processes, which start slowly on a busy 2-core machine.
+describe("lotwise CLI", { timeout: 180_000 }, () => {
   it("sweep --json prints the response arrays", async () => {
     const r = await cli(["sweep", net, "--from", "1M", "--to", "1G", "--points", "31", "--json"]);
     expect(r.code).toBe(0);

@@ -1,0 +1,36 @@
+import { useNavigate } from "react-router-dom";
+import { Badge } from "@/components/ui/badge";
+import { paths } from "@/config/paths";
+import type { RevisionSummary } from "@/features/designs/api/types";
+import { formatDateTime } from "@/utils/format";
+
+const REVIEW_TONE = { draft: "muted", "in-review": "signal", approved: "pass", "changes-requested": "fault" } as const;
+
+/** Which revision is open, its review state and whether a run has locked it. */
+export function RevisionBar({ designId, revisions, current }: { designId: string; revisions: RevisionSummary[]; current: RevisionSummary }) {
+  const navigate = useNavigate();
+  return (
+    <div className="flex flex-wrap items-center gap-3">
+      <label className="flex items-center gap-2 text-sm font-semibold text-paper-200">
+        Revision
+        <select
+          className="h-9 rounded-md border border-ink-600 bg-ink-950 px-2 font-mono text-sm text-paper-50"
+          value={current.id}
+          onChange={(e) => navigate(paths.app.design.getHref(designId, e.target.value))}
+        >
+          {[...revisions].sort((a, b) => b.number - a.number).map((r) => (
+            <option key={r.id} value={r.id}>
+              r{r.number}
+              {r.note ? ` — ${r.note.slice(0, 40)}` : ""}
+            </option>
+          ))}
+        </select>
+      </label>
+      <Badge tone={REVIEW_TONE[current.reviewState]}>{current.reviewState}</Badge>
+      {current.locked && <Badge tone="signal">locked by a run</Badge>}
+      <span className="text-xs text-ink-300">
+        by {current.createdBy.name}, {formatDateTime(current.createdAt)}
+      </span>
+    </div>
+  );
+}

@@ -1,0 +1,47 @@
+import { keepPreviousData, queryOptions, useQuery } from "@tanstack/react-query";
+import { api } from "@/lib/api-client";
+import type { RunSummary } from "@/features/runs/api/types";
+
+/** Filters, sort and page of GET /api/runs; every field is the query parameter of the same name. */
+export type RunQuery = {
+  designId?: string;
+  revisionId?: string;
+  launchedBy?: string;
+  state?: string;
+  from?: string;
+  to?: string;
+  minYield?: string;
+  maxYield?: string;
+  sort?: "queuedAt" | "finishedAt" | "yield" | "state" | "design";
+  dir?: "asc" | "desc";
+  page?: string;
+  pageSize?: string;
+};
+
+export const RUN_QUERY_KEYS = ["designId", "revisionId", "launchedBy", "state", "from", "to", "minYield", "maxYield", "sort", "dir", "page", "pageSize"] as const;
+
+export type RunPage = { runs: RunSummary[]; total: number; page: number; pageSize: number };
+
+/** The query string for a RunQuery, empty fields left out, in a stable order (it is also the cache key). */
+export function runQueryString(query: RunQuery): string {
+  const q = new URLSearchParams();
+  for (const key of RUN_QUERY_KEYS) {
+    const v = query[key];
+    if (v) q.set(key, v);
+  }
+  return q.toString();
+}
+
+export function getRunsQueryOptions(query: RunQuery) {
+  const qs = runQueryString(query);
+  return queryOptions({
+    queryKey: ["runs", "list", qs] as const,
+    queryFn: () => api.get<RunPage>(`/runs${qs ? `?${qs}` : ""}`),
+    placeholderData: keepPreviousData,
+    // Unfinished runs in view move on by themselves: refresh the page every 3 s while any is queued or running.
+    refetchInterval: (q) => (q.state.data?.runs.some((r) => r.state === "queued" || r.state === "running") ? 3000 : false),
+  });
+}
+
+/** Not suspending, so filters stay responsive while the next page loads (the previous page stays shown). */
+export const useRuns = (query: RunQuery) => useQuery(getRunsQueryOptions(query));

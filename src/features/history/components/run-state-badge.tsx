@@ -1,0 +1,9 @@
+import { Badge } from "@/components/ui/badge";
+import type { RunState } from "@/features/runs/api/types";
+
+const tone = { queued: "muted", running: "signal", done: "pass", failed: "fault", cancelled: "neutral" } as const;
+
+/** A run's state as a small tag. */
+export function RunStateBadge({ state }: { state: RunState }) {
+  return <Badge tone={tone[state] ?? "neutral"}>{state}</Badge>;
+}

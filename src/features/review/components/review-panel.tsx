@@ -1,0 +1,62 @@
+import { useState } from "react";
+import { hasAnyRole, type Role } from "@shared/roles";
+import { Alert } from "@/components/ui/alert";
+import { Button } from "@/components/ui/button";
+import { useReview, useReviewAction } from "@/features/review/api/review";
+import type { ReviewAction } from "@/features/review/api/types";
+import { ReviewStateBadge } from "@/features/review/components/review-state-badge";
+import { formatDateTime } from "@/utils/format";
+
+/**
+ * The revision's review: its state and trail, and the moves the signed-in person may make —
+ * a designer asks for review (draft or changes requested), a reviewer approves or sends it back (in review).
+ */
+export function ReviewPanel({ revisionId, revisionNumber, roles }: { revisionId: string; revisionNumber: number; roles: readonly Role[] }) {
+  const review = useReview(revisionId);
+  const act = useReviewAction(revisionId);
+  const [comment, setComment] = useState("");
+  const state = review.data.reviewState;
+  const canRequest = hasAnyRole(roles, ["designer"]) && (state === "draft" || state === "changes-requested");
+  const canDecide = hasAnyRole(roles, ["reviewer"]) && state === "in-review";
+  const run = (action: ReviewAction) => act.mutate({ action, comment: comment.trim() || undefined }, { onSuccess: () => setComment("") });
+
+  return (
+    <div className="flex flex-col gap-4">
+      <p className="flex items-center gap-2 text-sm text-paper-200">
+        Revision r{revisionNumber} is <ReviewStateBadge state={state} />
+      </p>
+      {review.data.events.length > 0 && (
+        <ol className="flex flex-col gap-1.5 border-l border-ink-700 pl-4 text-sm" aria-label="Review trail">
+          {review.data.events.map((e) => (
+            <li key={e.id}>
+              <span className="font-semibold text-paper-100">{e.actor.name}</span>{" "}
+              <span className="text-ink-300">moved it to</span> <ReviewStateBadge state={e.toState} />{" "}
+              <span className="text-xs text-ink-400">{formatDateTime(e.createdAt)}</span>
+              {e.comment && <p className="text-paper-200">“{e.comment}”</p>}
+            </li>
+          ))}
+        </ol>
+      )}
+      {(canRequest || canDecide) && (
+        <div className="flex flex-col gap-2">
+          <label htmlFor="review-note" className="text-sm font-semibold text-paper-200">
+            Note with the decision (optional)
+          </label>
+          <textarea id="review-note" rows={2} value={comment} onChange={(e) => setComment(e.target.value)}
+            className="rounded-md border border-ink-600 bg-ink-950 px-3 py-2 text-sm text-paper-50 focus-visible:outline-2 focus-visible:outline-signal-400" />
+          <div className="flex flex-wrap gap-2">
+            {canRequest && <Button pending={act.isPending} onClick={() => run("request")}>Ask for review</Button>}
+            {canDecide && <Button pending={act.isPending} onClick={() => run("approve")}>Approve revision</Button>}
+            {canDecide && <Button variant="danger" pending={act.isPending} onClick={() => run("request-changes")}>Send back for changes</Button>}
+          </div>
+        </div>
+      )}
+      {!canRequest && !canDecide && (
+        <p className="text-xs text-ink-400">
+          {state === "in-review" ? "A reviewer decides this revision." : state === "approved" ? "Approved; a change needs a new revision." : "The designer asks for review when ready."}
+        </p>
+      )}
+      {act.isError && <Alert tone="error">{act.error.message}</Alert>}
+    </div>
+  );
+}

@@ -1,0 +1,24 @@
+import { queryOptions, useSuspenseQuery } from "@tanstack/react-query";
+import { api } from "@/lib/api-client";
+import { isFinished, type RunResponse } from "@/features/runs/api/types";
+
+export async function getRun(runId: string): Promise<RunResponse> {
+  return api.get<RunResponse>(`/runs/${encodeURIComponent(runId)}`);
+}
+
+/** The stored run with its result; polled every 1.5 s while it is queued or running (the SSE fallback). */
+export function getRunQueryOptions(runId: string) {
+  return queryOptions({
+    queryKey: ["runs", "detail", runId] as const,
+    queryFn: () => getRun(runId),
+    refetchInterval: (query) => {
+      const state = query.state.data?.run.state;
+      return state && !isFinished(state) ? 1500 : false;
+    },
+    staleTime: (query) => (query.state.data && isFinished(query.state.data.run.state) ? Infinity : 0),
+  });
+}
+
+export function useRun(runId: string) {
+  return useSuspenseQuery(getRunQueryOptions(runId));
+}

@@ -1,0 +1,17 @@
+import { queryOptions, useSuspenseQuery } from "@tanstack/react-query";
+import { api } from "@/lib/api-client";
+import type { TrialReplay } from "@/features/runs/api/types";
+
+export async function getTrial(runId: string, index: number): Promise<TrialReplay> {
+  const { trial } = await api.get<{ trial: TrialReplay }>(`/runs/${encodeURIComponent(runId)}/trials/${index}`);
+  return trial;
+}
+
+/** A trial replayed from the run's seed; it never changes, so it is never stale. */
+export function getTrialQueryOptions(runId: string, index: number) {
+  return queryOptions({ queryKey: ["runs", "trial", runId, index] as const, queryFn: () => getTrial(runId, index), staleTime: Infinity });
+}
+
+export function useTrial(runId: string, index: number) {
+  return useSuspenseQuery(getTrialQueryOptions(runId, index));
+}

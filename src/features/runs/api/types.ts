@@ -1,0 +1,130 @@
+/** A run's life: queued → running → done | failed | cancelled (same words as the server's run entity). */
+export const RUN_STATES = ["queued", "running", "done", "failed", "cancelled"] as const;
+export type RunState = (typeof RUN_STATES)[number];
+
+/** A person as the API names them. */
+export type PersonRef = { id: string; name: string };
+
+/** One run as lists and headers show it (GET /api/runs, RunSummary in the workflow contract). */
+export type RunSummary = {
+  id: string;
+  designId: string;
+  designName: string;
+  revisionId: string;
+  revisionNumber: number;
+  limitSetId: string | null;
+  sweepId: string | null;
+  label: string;
+  state: RunState;
+  trialsDone: number;
+  trialsTotal: number;
+  passed: number | null;
+  yield: number | null;
+  wilson95: [number, number] | null;
+  seed: number | string;
+  launchedBy: PersonRef;
+  queuedAt: string;
+  startedAt: string | null;
+  finishedAt: string | null;
+  errorCode: string | null;
+  errorMessage: string | null;
+  bomCost: number | null;
+  lotSize: number;
+};
+
+export type HistogramJson = { lo: number; hi: number; bins: number; binWidth: number; counts: number[]; underflow: number; overflow: number };
+
+export type RuleSummaryJson = {
+  index: number;
+  metric: string;
+  label?: string;
+  from: number;
+  to: number;
+  min?: number;
+  max?: number;
+  unit: "dB" | "ns";
+  failures: number;
+  nominalMargin: number | null;
+  marginMean: number | null;
+  marginStd: number | null;
+  marginMin: number | null;
+  marginMax: number | null;
+  cpk: number | null;
+  histogram: HistogramJson;
+};
+
+export type EnvelopeSeriesJson = { metric: string; nominal: number[]; values: (number | null)[][]; clipped: number };
+
+/** The engine's finalizeRun result made JSON-safe, plus the grid and nominal |S| dB curves. */
+export type RunResultJson = {
+  seed: number | string;
+  trials: number;
+  passed: number;
+  yield: number;
+  wilson95: [number, number];
+  clopperPearson95: [number, number];
+  halfWidth95: number;
+  ruleFailures: number[];
+  failingTrials: number[];
+  rules: RuleSummaryJson[];
+  corners: number[];
+  envelopes: { freqs: number[]; percentiles: number[]; binDb: number; spanDb: number; series: EnvelopeSeriesJson[] };
+  sensitivity: { sampleSize: number; parts: string[]; rho: (number | null)[][] };
+  stop: { trialCap: number; targetHalfWidth: number | null; stoppedEarly: boolean };
+  freqs?: number[];
+  nominal?: Record<string, number[]>;
+};
+
+export type Economics = {
+  lotSize: number;
+  bomCost: number;
+  expectedGood: number;
+  scrapUnits: number;
+  scrapCost: number;
+  costPerGoodUnit: number | null;
+};
+
+export type LimitRuleJson = { metric: string; from: number; to: number; min?: number; max?: number; label?: string };
+
+export type NetlistPartJson = {
+  ref: string;
+  kind: "R" | "L" | "C";
+  nodes: [string, string];
+  value: number;
+  tolerance?: number;
+  toleranceAbs?: number;
+  distribution?: "normal" | "uniform";
+  series?: string;
+  grade?: string;
+};
+
+export type NetlistJson = { ports: { name: string; node: string; z0: number }[]; parts: NetlistPartJson[]; name?: string };
+
+export type RunDetail = RunSummary & {
+  options: { trials?: number; seed?: number | string; corners?: number[]; targetHalfWidth?: number } & Record<string, unknown>;
+  limits: { rules: LimitRuleJson[] };
+  gradeOverrides: Record<string, string>;
+  netlist: NetlistJson;
+};
+
+export type RunResponse = { run: RunDetail; result: RunResultJson | null; economics: Economics | null };
+
+/** One replayed trial (GET /api/runs/:id/trials/:index). */
+export type TrialReplay = {
+  index: number;
+  pass: boolean;
+  parts: { ref: string; kind: "R" | "L" | "C"; nominal: number; value: number; deviation: number }[];
+  margins: { rule: number; label: string; margin: number }[];
+  freqs: number[];
+  sDb: Record<string, number[]>;
+  gdNs: number[];
+};
+
+/** Live progress (SSE `progress` event, or derived from polling). */
+export type RunProgress = { state: RunState; trialsDone: number; trialsTotal: number; ratePerSecond: number | null; etaSeconds: number | null };
+
+export const FINISHED_STATES: readonly RunState[] = ["done", "failed", "cancelled"];
+
+export function isFinished(state: RunState): boolean {
+  return FINISHED_STATES.includes(state);
+}
