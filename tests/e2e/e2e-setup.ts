@@ -56,6 +56,9 @@ export async function signedInPage(e: E2e, role: string): Promise<Page> {
   page.on("request", (req) => {
     if (!req.url().startsWith(e.base) && !req.url().startsWith("data:")) e.foreign.push(req.url());
   });
+  page.on("response", (res) => {
+    if (res.status() >= 500) console.error(`[browser] ${res.status()} ${res.url()}`);
+  });
   page.on("pageerror", (err) => console.error(`[browser] ${err.message}`));
   page.on("console", (msg) => {
     if (msg.type() === "error") console.error(`[browser console] ${msg.text()}`);
