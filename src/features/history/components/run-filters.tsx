@@ -2,12 +2,12 @@ import type { RunQuery } from "@/features/history/api/get-runs";
 import type { DesignListItem } from "@/features/runs/api/get-launch-data";
 import { RUN_STATES } from "@/features/runs/api/types";
 
-export type RunFiltersProps = { query: RunQuery; designs: DesignListItem[]; onChange: (patch: Partial<RunQuery>) => void };
+export type RunFiltersProps = { query: RunQuery; designs: DesignListItem[]; userId: string; onChange: (patch: Partial<RunQuery>) => void };
 
 const input = "h-9 rounded-md border border-ink-600 bg-ink-950 px-2 text-sm text-paper-50 focus-visible:outline-2 focus-visible:outline-signal-400";
 
 /** Filters of the history: design, state, launched from/to (dates), yield range (%), mine only. */
-export function RunFilters({ query, designs, onChange }: RunFiltersProps) {
+export function RunFilters({ query, designs, userId, onChange }: RunFiltersProps) {
   const pct = (v: string | undefined) => (v ? String(Number((Number(v) * 100).toPrecision(4))) : "");
   const fraction = (v: string) => (v.trim() === "" || !Number.isFinite(Number(v)) ? undefined : String(Number(v) / 100));
   return (
@@ -36,6 +36,11 @@ export function RunFilters({ query, designs, onChange }: RunFiltersProps) {
       <Field label="Yield ≤ %">
         <input className={`${input} w-20`} inputMode="decimal" defaultValue={pct(query.maxYield)} onBlur={(e) => onChange({ maxYield: fraction(e.target.value) })} />
       </Field>
+      <label className="flex h-9 items-center gap-2 text-sm text-paper-200">
+        <input type="checkbox" className="size-4 accent-signal-500" checked={query.launchedBy === userId}
+          onChange={(e) => onChange({ launchedBy: e.target.checked ? userId : undefined })} />
+        Only my runs
+      </label>
     </fieldset>
   );
 }

@@ -10,7 +10,7 @@ import { RunsTable } from "@/features/history/components/runs-table";
 import { useDesigns } from "@/features/runs/api/get-launch-data";
 
 /** The history: filters and sorting live in the address, so a filtered view can be shared as a link. */
-export function RunHistory() {
+export function RunHistory({ userId }: { userId: string }) {
   const [search, setSearch] = useSearchParams();
   const query = Object.fromEntries(RUN_QUERY_KEYS.map((k) => [k, search.get(k) ?? undefined])) as RunQuery;
   const sort = query.sort ?? "queuedAt";
@@ -30,7 +30,7 @@ export function RunHistory() {
 
   return (
     <div className="flex flex-col gap-4">
-      <RunFilters query={query} designs={designs.data} onChange={patch} />
+      <RunFilters query={query} designs={designs.data} userId={userId} onChange={patch} />
       <div className="flex flex-wrap items-center gap-3 text-sm">
         <span className="text-ink-300">{selected.length} selected (2 to 6 finished runs)</span>
         {selected.length >= 2 && (

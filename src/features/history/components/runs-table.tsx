@@ -58,9 +58,9 @@ export function RunsTable({ runs, sort, dir, onSort, selected, onToggle }: RunsT
               </Link>
             </TableCell>
             <TableCell><RunStateBadge state={run.state} /></TableCell>
-            <TableCell className="text-right font-mono">{percent(run.yield, 1)}</TableCell>
-            <TableCell className="text-right font-mono text-ink-300">{interval(run.wilson95, 1)}</TableCell>
-            <TableCell className="text-right font-mono">{count(run.trialsDone)} / {count(run.trialsTotal)}</TableCell>
+            <TableCell className="whitespace-nowrap text-right font-mono">{percent(run.yield, 1)}</TableCell>
+            <TableCell className="whitespace-nowrap text-right font-mono text-ink-300">{interval(run.wilson95, 1)}</TableCell>
+            <TableCell className="whitespace-nowrap text-right font-mono">{count(run.trialsDone)} / {count(run.trialsTotal)}</TableCell>
             <TableCell>{run.launchedBy.name}</TableCell>
             <TableCell className="whitespace-nowrap text-ink-300">{formatDateTime(run.queuedAt)}</TableCell>
             <TableCell className="whitespace-nowrap text-ink-300">{run.finishedAt ? formatDateTime(run.finishedAt) : "—"}</TableCell>

@@ -24,26 +24,29 @@ export function AssignmentsEditor({ parts, grades, value, onChange }: Assignment
         <TableHead>
           <tr>
             <TableHeaderCell>assignment</TableHeaderCell>
-            {parts.map((p) => <TableHeaderCell key={p.ref} className="font-mono normal-case">{p.ref}</TableHeaderCell>)}
+            {parts.map((p) => <TableHeaderCell key={p.ref} className="px-1.5 font-mono normal-case">{p.ref}</TableHeaderCell>)}
             <TableHeaderCell><span className="sr-only">Remove</span></TableHeaderCell>
           </tr>
         </TableHead>
         <TableBody>
           {value.map((a, k) => (
             <TableRow key={k}>
-              <TableCell>
-                <input aria-label={`Label of assignment ${k + 1}`} className={`${cell} w-40`} value={a.label} maxLength={160} onChange={(e) => update(k, { ...a, label: e.target.value })} />
+              <TableCell className="px-2">
+                <input aria-label={`Label of assignment ${k + 1}`} className={`${cell} w-32`} value={a.label} maxLength={160} onChange={(e) => update(k, { ...a, label: e.target.value })} />
               </TableCell>
               {parts.map((p) => (
-                <TableCell key={p.ref}>
+                <TableCell key={p.ref} className="px-1.5">
                   <select aria-label={`Assignment ${k + 1} grade for ${p.ref}`} className={cell} value={a.gradeOverrides[p.ref] ?? ""} onChange={(e) => setGrade(k, p.ref, e.target.value)}>
                     <option value="">as entered</option>
                     {grades.filter((g) => g.kind === p.kind).map((g) => <option key={g.id} value={g.code}>{g.code}</option>)}
                   </select>
                 </TableCell>
               ))}
-              <TableCell>
-                <Button variant="ghost" size="sm" disabled={value.length <= 1} onClick={() => onChange(value.filter((_, i) => i !== k))}>Remove</Button>
+              <TableCell className="px-2">
+                <Button variant="ghost" size="sm" className="px-2" aria-label={`Remove assignment ${k + 1}`} title="Remove" disabled={value.length <= 1}
+                  onClick={() => onChange(value.filter((_, i) => i !== k))}>
+                  ✕
+                </Button>
               </TableCell>
             </TableRow>
           ))}

@@ -8,8 +8,10 @@ import { CompareCharts } from "@/features/compare/components/compare-charts";
 import { CompareSummary } from "@/features/compare/components/compare-summary";
 import { RunHistory } from "@/features/history/components/run-history";
 import { chartColors } from "@/features/runs/components/charts/theme";
+import { useAppUser } from "@/app/routes/app/app-context";
 
 export default function CompareRoute() {
+  const user = useAppUser();
   const [search] = useSearchParams();
   const ids = (search.get("runs") ?? "").split(",").filter(Boolean).slice(0, 6);
   return (
@@ -21,7 +23,7 @@ export default function CompareRoute() {
           <Alert tone="info">Tick two to six finished runs below, then “Compare selected”.</Alert>
           <Card>
             <RegionBoundary region="Run history">
-              <RunHistory />
+              <RunHistory userId={user.id} />
             </RegionBoundary>
           </Card>
         </div>

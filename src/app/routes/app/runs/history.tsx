@@ -43,7 +43,7 @@ export default function HistoryRoute() {
       />
       <Card>
         <RegionBoundary region="Run history">
-          <RunHistory />
+          <RunHistory userId={user.id} />
         </RegionBoundary>
       </Card>
     </>
