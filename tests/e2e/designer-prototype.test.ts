@@ -1,52 +1,20 @@
-import { existsSync, mkdirSync } from "node:fs";
-import type { Server } from "node:http";
-import type { AddressInfo } from "node:net";
-import { chromium, type Browser, type Page } from "playwright-core";
+import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { eSeriesValues } from "../../shared/engine/e-series";
-import { DEMO_PASSWORD, DEMO_PEOPLE, seedDemo } from "../../server/seed/demo";
-import { createTestContext, type TestContext } from "../helpers/test-context";
+import { DEMO_PEOPLE } from "../../server/seed/demo";
+import { ARTIFACTS, signIn as signInForm, startE2e, type E2e } from "../helpers/browser";
 
 // End to end in Debian's Chromium: the demo designer starts a design from a 5th-order Butterworth
 // low-pass prototype at 100 MHz, snaps every part to E24 and saves a new revision, which the API then
 // returns with E24 values. Screenshots go to tests/artifacts/e2e (git-ignored).
 
-const ARTIFACTS = "tests/artifacts/e2e";
-const CHROMIUM_ARGS = ["--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
-  "--disable-background-networking", "--disable-component-update", "--disable-sync"];
-
-let t: TestContext;
-let server: Server;
-let browser: Browser;
-let base: string;
-
+let e: E2e;
 beforeAll(async () => {
-  if (!existsSync("dist/client/index.html")) throw new Error("The client is not built: run `npx vite build` first.");
-  mkdirSync(ARTIFACTS, { recursive: true });
-  t = await createTestContext();
-  await seedDemo(t.ctx.dataSource);
-  server = await new Promise<Server>((resolve) => {
-    const s = t.app.listen(0, "127.0.0.1", () => resolve(s));
-  });
-  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
-  t.ctx.config.publicOrigin = base;
-  browser = await chromium.launch({ executablePath: "/usr/bin/chromium", args: CHROMIUM_ARGS });
-});
+  e = await startE2e({ demoDesigns: false });
+}, 90_000);
+afterAll(() => e?.close());
 
-afterAll(async () => {
-  await browser?.close();
-  await new Promise<void>((resolve) => (server ? server.close(() => resolve()) : resolve()));
-  server?.closeAllConnections();
-  await t?.close();
-});
-
-async function signIn(page: Page, email: string): Promise<void> {
-  await page.goto(`${base}/sign-in`);
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(DEMO_PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.getByRole("button", { name: "Sign out" }).waitFor();
-}
+const signIn = (page: Page, email: string) => signInForm(page, e.base, email);
 
 /** True when v is an E24 member times a power of ten (to 1e-9 relative). */
 function isE24(v: number): boolean {
@@ -57,7 +25,7 @@ function isE24(v: number): boolean {
 describe("designer in the browser", () => {
   it("starts from a Butterworth prototype, snaps all to E24 and saves a revision", async () => {
     const designer = DEMO_PEOPLE.find((p) => p.roles.includes("designer"))!;
-    const context = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
+    const context = await e.browser.newContext({ viewport: { width: 1440, height: 1000 } });
     const page = await context.newPage();
     const pageErrors: string[] = [];
     page.on("pageerror", (e) => pageErrors.push(e.message));
@@ -120,10 +88,10 @@ describe("designer in the browser", () => {
     await page.screenshot({ path: `${ARTIFACTS}/designer-5-bad-upload.png`, fullPage: true });
 
     // Stored through the API: r2 with every part on E24.
-    const { designs } = await (await page.request.get(`${base}/api/designs`)).json();
+    const { designs } = await (await page.request.get(`${e.base}/api/designs`)).json();
     const design = designs.find((d: { name: string }) => d.name === "Harmonic low-pass 100 MHz");
     expect(design.latestRevision.number).toBe(2);
-    const { revision } = await (await page.request.get(`${base}/api/revisions/${design.latestRevision.id}`)).json();
+    const { revision } = await (await page.request.get(`${e.base}/api/revisions/${design.latestRevision.id}`)).json();
     expect(revision.note).toBe("Snapped to E24");
     expect(revision.netlist.parts).toHaveLength(5);
     for (const part of revision.netlist.parts) {

@@ -1,60 +1,27 @@
-import { existsSync, mkdirSync } from "node:fs";
-import type { Server } from "node:http";
-import type { AddressInfo } from "node:net";
-import { chromium, type Browser, type Page } from "playwright-core";
+import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { DEMO_PASSWORD, DEMO_PEOPLE, seedDemo } from "../../server/seed/demo";
-import { createTestContext, type TestContext } from "../helpers/test-context";
+import { DEMO_PASSWORD, DEMO_PEOPLE } from "../../server/seed/demo";
+import { ARTIFACTS, signIn as signInForm, startE2e, type E2e } from "../helpers/browser";
 
 // End to end in Debian's Chromium: the demo admin invites someone, opens the invitation from the Outbox,
 // the invitee sets a password and signs in. Screenshots go to tests/artifacts/e2e (git-ignored).
 
-const ARTIFACTS = "tests/artifacts/e2e";
-const CHROMIUM_ARGS = ["--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
-  "--disable-background-networking", "--disable-component-update", "--disable-sync"];
-
-let t: TestContext;
-let server: Server;
-let browser: Browser;
-let base: string;
-const foreignRequests: string[] = [];
-
+let e: E2e;
 beforeAll(async () => {
-  if (!existsSync("dist/client/index.html")) throw new Error("The client is not built: run through `npm test` (it runs vite build first).");
-  mkdirSync(ARTIFACTS, { recursive: true });
-  t = await createTestContext();
-  await seedDemo(t.ctx.dataSource);
-  server = await new Promise<Server>((resolve) => {
-    const s = t.app.listen(0, "127.0.0.1", () => resolve(s));
-  });
-  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
-  t.ctx.config.publicOrigin = base;
-  browser = await chromium.launch({ executablePath: "/usr/bin/chromium", args: CHROMIUM_ARGS });
-});
-
-afterAll(async () => {
-  await browser?.close();
-  await new Promise<void>((resolve) => (server ? server.close(() => resolve()) : resolve()));
-  server?.closeAllConnections();
-  await t?.close();
-});
+  e = await startE2e({ demoDesigns: false });
+}, 90_000);
+afterAll(() => e?.close());
 
 async function newPage(): Promise<Page> {
-  const context = await browser.newContext({ viewport: { width: 1280, height: 860 } });
+  const context = await e.browser.newContext({ viewport: { width: 1280, height: 860 } });
   const page = await context.newPage();
   page.on("request", (req) => {
-    if (!req.url().startsWith(base) && !req.url().startsWith("data:")) foreignRequests.push(req.url());
+    if (!req.url().startsWith(e.base) && !req.url().startsWith("data:")) e.foreign.push(req.url());
   });
   return page;
 }
 
-async function signIn(page: Page, email: string, password: string): Promise<void> {
-  await page.goto(`${base}/sign-in`);
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(password);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.getByRole("button", { name: "Sign out" }).waitFor();
-}
+const signIn = (page: Page, email: string, password: string) => signInForm(page, e.base, email, password);
 
 describe("invitation in the browser", () => {
   it("admin invites, invitee accepts from the Outbox link and signs in", async () => {
@@ -76,7 +43,7 @@ describe("invitation in the browser", () => {
     const link = page.locator('a[href*="/invitation/"]').first();
     await link.waitFor();
     const href = (await link.getAttribute("href"))!;
-    expect(href.startsWith(`${base}/invitation/`)).toBe(true);
+    expect(href.startsWith(`${e.base}/invitation/`)).toBe(true);
     await page.screenshot({ path: `${ARTIFACTS}/3-outbox.png` });
     await page.getByRole("button", { name: "Sign out" }).click();
     await page.getByRole("button", { name: "Sign in" }).waitFor();
@@ -95,6 +62,6 @@ describe("invitation in the browser", () => {
     await signIn(page, "nadia.brook@brackwater.example", "tidal-bench-passphrase");
     expect(await page.getByRole("link", { name: "Team" }).count()).toBe(0); // a planner sees no admin screens
     await page.screenshot({ path: `${ARTIFACTS}/5-invitee-again.png` });
-    expect(foreignRequests).toEqual([]);
+    expect(e.foreign).toEqual([]);
   }, 60_000);
 });

@@ -1,65 +1,34 @@
-import { existsSync, mkdirSync } from "node:fs";
-import type { Server } from "node:http";
-import type { AddressInfo } from "node:net";
-import { chromium, type Browser, type Page } from "playwright-core";
+import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import request from "supertest";
 import { synthesizeLadder } from "../../shared/engine/synthesis/index";
-import { DEMO_PASSWORD, DEMO_PEOPLE, seedDemo } from "../../server/seed/demo";
-import { createTestContext, ORIGIN, type TestContext } from "../helpers/test-context";
+import { DEMO_PEOPLE } from "../../server/seed/demo";
+import { ARTIFACTS, signIn as signInForm, startE2e, type E2e } from "../helpers/browser";
+import { ORIGIN } from "../helpers/test-context";
 
 // End to end in Debian's Chromium: a designer's design exists (made through the API); the demo planner
 // opens its Limits screen, adds a limit set with two rules, sees both drawn as the mask over the nominal
 // response, and the API returns the stored rules. Then the planner adds a grade to the catalogue.
 // Screenshots go to tests/artifacts/e2e (git-ignored).
 
-const ARTIFACTS = "tests/artifacts/e2e";
-const CHROMIUM_ARGS = ["--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
-  "--disable-background-networking", "--disable-component-update", "--disable-sync"];
-
-let t: TestContext;
-let server: Server;
-let browser: Browser;
-let base: string;
-
+let e: E2e;
 beforeAll(async () => {
-  if (!existsSync("dist/client/index.html")) throw new Error("The client is not built: run `npx vite build` first.");
-  mkdirSync(ARTIFACTS, { recursive: true });
-  t = await createTestContext();
-  await seedDemo(t.ctx.dataSource);
-  server = await new Promise<Server>((resolve) => {
-    const s = t.app.listen(0, "127.0.0.1", () => resolve(s));
-  });
-  base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
-  t.ctx.config.publicOrigin = base;
-  browser = await chromium.launch({ executablePath: "/usr/bin/chromium", args: CHROMIUM_ARGS });
-});
+  e = await startE2e({ demoDesigns: false });
+}, 90_000);
+afterAll(() => e?.close());
 
-afterAll(async () => {
-  await browser?.close();
-  await new Promise<void>((resolve) => (server ? server.close(() => resolve()) : resolve()));
-  server?.closeAllConnections();
-  await t?.close();
-});
-
-async function signIn(page: Page, email: string): Promise<void> {
-  await page.goto(`${base}/sign-in`);
-  await page.getByLabel("E-mail").fill(email);
-  await page.getByLabel("Password").fill(DEMO_PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.getByRole("button", { name: "Sign out" }).waitFor();
-}
+const signIn = (page: Page, email: string) => signInForm(page, e.base, email);
 
 describe("planner in the browser", () => {
   it("adds a limit set with two rules and sees the mask; adds a grade", async () => {
-    const { agent } = await t.signedInAgent(["designer"]);
+    const { agent } = await e.t.signedInAgent(["designer"]);
     const netlist = synthesizeLadder({ family: "chebyshev", type: "lowpass", order: 5, cutoff: 80e6, rippleDb: 0.1 });
     const created = await agent.post("/api/designs").set("Origin", ORIGIN)
       .send({ name: "VHF low-pass", netlist, sweep: { from: 1e6, to: 1e9, points: 201, scale: "log" } }).expect(201);
     const designId: string = created.body.design.id;
 
     const planner = DEMO_PEOPLE.find((p) => p.roles.includes("planner"))!;
-    const context = await browser.newContext({ viewport: { width: 1440, height: 1000 } });
+    const context = await e.browser.newContext({ viewport: { width: 1440, height: 1000 } });
     const page = await context.newPage();
     const pageErrors: string[] = [];
     page.on("pageerror", (e) => pageErrors.push(e.message));
@@ -93,7 +62,7 @@ describe("planner in the browser", () => {
     await page.waitForTimeout(300);
     await page.screenshot({ path: `${ARTIFACTS}/planner-1-limits.png`, fullPage: true });
 
-    const stored = await request(t.app).get(`/api/designs/${designId}/limit-sets`).set("Cookie", (await context.cookies()).map((c) => `${c.name}=${c.value}`).join("; "));
+    const stored = await request(e.t.app).get(`/api/designs/${designId}/limit-sets`).set("Cookie", (await context.cookies()).map((c) => `${c.name}=${c.value}`).join("; "));
     expect(stored.status).toBe(200);
     expect(stored.body.limitSets).toHaveLength(1);
     expect(stored.body.limitSets[0]).toMatchObject({ name: "Harmonic mask", lotSize: 500 });

@@ -1,3 +1,5 @@
+import type { EnvelopeSeries, RuleSummary } from "@shared/engine/result";
+import type { Histogram } from "@shared/engine/stats/histogram";
 /** A run's life: queued → running → done | failed | cancelled (same words as the server's run entity). */
 export const RUN_STATES = ["queued", "running", "done", "failed", "cancelled"] as const;
 export type RunState = (typeof RUN_STATES)[number];
@@ -32,28 +34,10 @@ export type RunSummary = {
   lotSize: number;
 };
 
-export type HistogramJson = { lo: number; hi: number; bins: number; binWidth: number; counts: number[]; underflow: number; overflow: number };
-
-export type RuleSummaryJson = {
-  index: number;
-  metric: string;
-  label?: string;
-  from: number;
-  to: number;
-  min?: number;
-  max?: number;
-  unit: "dB" | "ns";
-  failures: number;
-  nominalMargin: number | null;
-  marginMean: number | null;
-  marginStd: number | null;
-  marginMin: number | null;
-  marginMax: number | null;
-  cpk: number | null;
-  histogram: HistogramJson;
-};
-
-export type EnvelopeSeriesJson = { metric: string; nominal: number[]; values: (number | null)[][]; clipped: number };
+// The engine's own result types are already JSON-safe (plain numbers and arrays).
+export type HistogramJson = Histogram;
+export type RuleSummaryJson = RuleSummary;
+export type EnvelopeSeriesJson = EnvelopeSeries;
 
 /** The engine's finalizeRun result made JSON-safe, plus the grid and nominal |S| dB curves. */
 export type RunResultJson = {
