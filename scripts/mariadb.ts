@@ -15,7 +15,7 @@ const bin = (name: string) => (existsSync(`/usr/bin/${name}`) ? `/usr/bin/${name
 
 /**
  * Starts a private MariaDB on 127.0.0.1:`port` with its data in `dir` (created on first use, reused after).
- * `--no-defaults` first so /etc/mysql is never read; absolute paths only (STACK.md §3). A stale pid file is cleared;
+ * `--no-defaults` first so /etc/mysql is never read; absolute paths only (a relative --datadir resolves under /usr). A stale pid file is cleared;
  * a server still running from an earlier start on the same folder is adopted.
  */
 export async function startMariaDb(options: { dir: string; port: number }): Promise<MariaDb> {

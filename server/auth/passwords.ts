@@ -1,6 +1,6 @@
 import { hash, verify } from "@node-rs/argon2";
 
-// argon2id with OWASP's minimum recommended cost (m = 19 MiB, t = 2, p = 1); ~60 ms to hash here (STACK.md §5).
+// argon2id with OWASP's minimum recommended cost (m = 19 MiB, t = 2, p = 1); about 60 ms to hash on our 2-core machines.
 const ARGON2ID = 2;
 const OPTIONS = { algorithm: ARGON2ID, memoryCost: 19456, timeCost: 2, parallelism: 1 } as const;
 

@@ -4,7 +4,7 @@ import mysql from "mysql2/promise";
 import type { ServerConfig } from "../config/env";
 import { ROLES, type Role } from "../../shared/roles";
 
-// Lucia v3 is unmaintained upstream (see STACK.md §5): it is used only inside this module, so replacing it with our
+// Lucia v3 is unmaintained upstream (deprecated in 2025, no more fixes): it is used only inside this module, so replacing it with our
 // own ~100 lines of session code on the same two tables touches nothing else.
 
 /** The signed-in person as the rest of the server sees them. */

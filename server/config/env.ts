@@ -22,6 +22,7 @@ const envSchema = z.object({
   LOTWISE_MAIL_FROM: z.string().default("Lotwise <lotwise@localhost>"),
   LOTWISE_WORKERS: z.coerce.number().int().min(1).max(64).optional(),
   LOTWISE_CLIENT_DIR: z.string().default("dist/client"),
+  LOTWISE_LOG_LEVEL: z.enum(["info", "warn", "error", "silent"]).optional(),
 });
 
 export type ServerConfig = {

@@ -16,7 +16,7 @@ export interface Mailer {
 
 /**
  * Mail through nodemailer. With LOTWISE_SMTP_HOST set it uses that server (TLS on 465, STARTTLS required on
- * others); otherwise the local stand-in on loopback, plain SMTP (its built-in certificate has expired, STACK.md §9).
+ * others); otherwise the local stand-in on loopback, plain SMTP (smtp-server's built-in STARTTLS certificate has expired, so STARTTLS is off on the stand-in).
  */
 export function createMailer(config: Pick<ServerConfig, "smtp" | "mailFrom">): Mailer {
   const { smtp } = config;

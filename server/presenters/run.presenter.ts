@@ -16,6 +16,8 @@ export function presentRunSummary(run: RunWithRelations, extras: RunSummaryExtra
     id: run.id,
     designId: run.designId,
     designName: extras.designName ?? run.design?.name ?? "",
+    /** the design's use, for the safety cautions beside every result (null when the design row was not loaded) */
+    designStress: run.design?.stress ?? null,
     revisionId: run.revisionId,
     revisionNumber: extras.revisionNumber ?? run.revision?.number ?? null,
     limitSetId: run.limitSetId,

@@ -70,6 +70,7 @@ describe("a run launched through the API", () => {
     expect(Object.keys(detail.result.nominal).sort()).toEqual(["s11", "s12", "s21", "s22"]);
     // [C] |S21| dB from the solver's complex S at each grid point
     const s21 = Array.from(grid.freqs, (_, k) => 10 * Math.log10(buf.s[(k * 4 + 2) * 2] ** 2 + buf.s[(k * 4 + 2) * 2 + 1] ** 2));
+    expect(detail.result.nominal.s21).toHaveLength(grid.freqs.length);
     detail.result.nominal.s21.forEach((v: number, k: number) => expect(v).toBeCloseTo(s21[k], 9));
   });
 
@@ -194,6 +195,8 @@ describe("replay and exports", () => {
     const buf = createSweepEvaluator(compiled, grid.freqs).evaluate(nominalValues(compiled), 25);
     expect(data.ports).toBe(2);
     expect(data.z0).toEqual([50, 50]);
+    expect(data.freqs.length).toBe(grid.freqs.length);
+    expect(data.s.length).toBe(buf.s.length);
     data.freqs.forEach((fr, k) => expect(fr).toBeCloseTo(grid.freqs[k], 0)); // written as GHz with full precision
     // 12 significant digits in the file (writeTouchstone) → ≤ ~1e-11 absolute on |S| ≤ 1
     data.s.forEach((v, k) => expect(Math.abs(v - buf.s[k])).toBeLessThan(1e-10));
@@ -205,6 +208,8 @@ describe("replay and exports", () => {
     const want = replayTrial(LOWPASS, LOWPASS_LIMITS, { sweep: LOWPASS_SWEEP }, SEED, 5);
     const s21 = Array.from(data.freqs, (_, k) => 10 * Math.log10(data.s[(k * 4 + 2) * 2] ** 2 + data.s[(k * 4 + 2) * 2 + 1] ** 2));
     // 12 significant digits of magnitude → ≤ 1e-10 dB
+    expect(s21.length).toBe(want.corners[0].sDb.s21_db.length);
+    expect(s21.length).toBeGreaterThan(10);
     s21.forEach((db, k) => expect(Math.abs(db - want.corners[0].sDb.s21_db[k])).toBeLessThan(1e-9));
   });
 });

@@ -18,7 +18,7 @@ export function StressCaution({ stress }: { stress: StressClass }) {
   if (!text) return null;
   return (
     <Alert tone="caution" role="note" title={text.title}>
-      {text.body}
+      {text.body} Lotwise estimates; it does not certify: measure built units and defer to local codes and licensed practice.
     </Alert>
   );
 }

@@ -12,6 +12,7 @@ export type RunSummary = {
   id: string;
   designId: string;
   designName: string;
+  designStress: "small-signal" | "mains" | "high-power-rf" | null;
   revisionId: string;
   revisionNumber: number;
   limitSetId: string | null;

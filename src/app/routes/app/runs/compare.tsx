@@ -9,6 +9,7 @@ import { CompareSummary } from "@/features/compare/components/compare-summary";
 import { RunHistory } from "@/features/history/components/run-history";
 import { chartColors } from "@/features/runs/components/charts/theme";
 import { useAppUser } from "@/app/routes/app/app-context";
+import { SafetyCaution } from "@/features/runs/components/safety-caution";
 
 export default function CompareRoute() {
   const user = useAppUser();
@@ -38,8 +39,11 @@ export default function CompareRoute() {
 
 function Comparison({ ids }: { ids: string[] }) {
   const entries = useCompare(ids).data;
+  const stresses = entries.map((e) => e.run.designStress);
+  const stress = stresses.find((x) => x === "mains") ?? stresses.find((x) => x === "high-power-rf") ?? undefined;
   return (
     <div className="flex flex-col gap-6">
+      <SafetyCaution stress={stress} />
       <Card>
         <CompareSummary entries={entries} colors={chartColors.series} />
       </Card>

@@ -46,7 +46,7 @@ function ReportPage({ runId }: { runId: string }) {
         </div>
       </header>
       {result ? (
-        <RunReport run={run} result={result} economics={economics} caution={<SafetyCaution stress={design.data?.design.stress} />} />
+        <RunReport run={run} result={result} economics={economics} caution={<SafetyCaution stress={run.designStress ?? design.data?.design.stress} />} />
       ) : (
         <Alert tone="info" title="No result yet">The report is ready once the run is done (it is {run.state}).</Alert>
       )}

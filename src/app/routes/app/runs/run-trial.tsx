@@ -6,6 +6,7 @@ import { paths } from "@/config/paths";
 import { getRunQueryOptions, useRun } from "@/features/runs/api/get-run";
 import { getTrialQueryOptions, useTrial } from "@/features/runs/api/get-trial";
 import { TrialReplayView } from "@/features/runs/components/trial-replay";
+import { SafetyCaution } from "@/features/runs/components/safety-caution";
 
 export const clientLoader = (queryClient: QueryClient) => async ({ params }: LoaderFunctionArgs) => {
   void queryClient.prefetchQuery(getRunQueryOptions(params.runId ?? ""));
@@ -44,6 +45,9 @@ function TrialPage({ runId, index }: { runId: string; index: number }) {
           </nav>
         }
       />
+      <div className="mb-6">
+        <SafetyCaution stress={run.designStress ?? undefined} />
+      </div>
       <TrialReplayView trial={trial} rules={run.limits.rules} nominal={nominal} />
     </>
   );

@@ -41,7 +41,7 @@ function RunPage({ runId }: { runId: string }) {
   const { run, result, economics } = data;
   const design = useQuery(getDesignQueryOptions(run.designId));
   const canLaunch = hasAnyRole(user.roles, LAUNCH_ROLES);
-  const caution = <SafetyCaution stress={design.data?.design.stress} />;
+  const caution = <SafetyCaution stress={run.designStress ?? design.data?.design.stress} />;
   const measured = design.data?.measured.map((m) => ({ id: m.id, name: m.name })) ?? [];
 
   return (
@@ -53,6 +53,7 @@ function RunPage({ runId }: { runId: string }) {
         actions={<Badge tone={run.state === "done" ? "pass" : run.state === "failed" ? "fault" : "signal"}>{run.state}</Badge>}
       />
       <div className="flex flex-col gap-6">
+        {run.state !== "done" && caution}
         <Card title="Inputs">
           <RunFacts run={run} />
         </Card>

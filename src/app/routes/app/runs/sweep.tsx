@@ -8,6 +8,9 @@ import { paths } from "@/config/paths";
 import { getSweepQueryOptions, useSweep } from "@/features/sweeps/api/sweeps";
 import { SweepTable } from "@/features/sweeps/components/sweep-table";
 import { percent } from "@/features/runs/utils/format";
+import { useQuery } from "@tanstack/react-query";
+import { getDesignQueryOptions } from "@/features/runs/api/get-launch-data";
+import { SafetyCaution } from "@/features/runs/components/safety-caution";
 
 export const clientLoader = (queryClient: QueryClient) => async ({ params }: LoaderFunctionArgs) => {
   void queryClient.prefetchQuery(getSweepQueryOptions(params.sweepId ?? ""));
@@ -28,11 +31,13 @@ function SweepPage({ sweepId }: { sweepId: string }) {
   const pending = data.rows.filter((r) => r.state === "queued" || r.state === "running").length;
   const cheapest = data.rows.find((r) => r.runId === data.cheapestMeetingTarget);
   const doneIds = data.rows.filter((r) => r.state === "done").map((r) => r.runId);
+  const design = useQuery(getDesignQueryOptions(data.sweep.designId));
   return (
     <>
       <title>{`${data.sweep.name || "Grade sweep"} · Lotwise`}</title>
       <PageHeader title={data.sweep.name || "Grade sweep"} lead={`Target yield ${percent(data.sweep.targetYield, 1)}: an assignment meets it when the lower end of its 95 % interval does.`} />
       <div className="flex flex-col gap-4">
+        <SafetyCaution stress={design.data?.design.stress} />
         {pending > 0 && <Alert tone="info">{pending} of {data.rows.length} runs still going; the table fills in as they finish.</Alert>}
         {pending === 0 && (cheapest ? (
           <Alert tone="success" title={`Cheapest assignment meeting the target: ${cheapest.label}`}>
