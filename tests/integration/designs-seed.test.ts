@@ -35,12 +35,12 @@ describe("demo designs seed", () => {
     // Ideal values from the 0.1 dB Chebyshev prototype, n = 7 (REFERENCES.md §1.2 [C]: g1 = 1.1812, g2 = 1.4228,
     // g3 = 2.0967, g4 = 1.5734), C = g/(R0·ωc), L = g·R0/ωc at 175 MHz, 50 Ω:
     // C1 = 21.48 pF → E24 22 pF, L2 = 64.70 nH → E24 62 nH (below √(62·68) = 64.93), C3 = 38.14 pF → 39 pF,
-    // L4 = 71.54 nH → 75 nH (above √(68·75) = 71.41).
+    // L4 = 71.55 nH → 75 nH (above √(68·75) = 71.41).
     const wc = 2 * Math.PI * 175e6;
     const { g } = prototypeValues("chebyshev", 7, 0.1);
     expect(g.slice(0, 4).map((v) => Number(v.toFixed(4)))).toEqual([1.1812, 1.4228, 2.0967, 1.5734]);
     const ideal = [g[0] / (50 * wc), (g[1] * 50) / wc, g[2] / (50 * wc), (g[3] * 50) / wc];
-    expect(ideal.map((v) => Number(v.toPrecision(4)))).toEqual([21.48e-12, 64.7e-9, 38.14e-12, 71.54e-9]);
+    expect(ideal.map((v) => Number(v.toPrecision(4)))).toEqual([21.48e-12, 64.7e-9, 38.14e-12, 71.55e-9]);
     expect(parts.map((p) => [p.ref, p.value])).toEqual([
       ["C1", 22e-12], ["L2", 62e-9], ["C3", 39e-12], ["L4", 75e-9], ["C5", 39e-12], ["L6", 62e-9], ["C7", 22e-12],
     ]);
