@@ -28,4 +28,9 @@ if [ "${#missing[@]}" -gt 0 ]; then
   DEBIAN_FRONTEND=noninteractive apt-get install -y -qq --no-install-recommends "${missing[@]}" >/dev/null
 fi
 
+if [ "$mode" = "soak" ]; then
+  shift
+  exec node_modules/.bin/tsx scripts/soak.ts "$@"
+fi
+
 exec node_modules/.bin/tsx scripts/stack.ts "$@"

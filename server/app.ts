@@ -5,6 +5,7 @@ import type { AppContext } from "./context";
 import { AppError } from "./errors";
 import { errorHandler } from "./middlewares/error-handler";
 import { requireSameOrigin } from "./middlewares/origin";
+import { securityHeaders } from "./middlewares/security-headers";
 import { loadSession } from "./middlewares/session";
 import type { ApiRouter, RouteInfo } from "./routes/api-router";
 import { authRoutes } from "./routes/auth.routes";
@@ -25,6 +26,8 @@ export function createApp(ctx: AppContext): { app: Express; routes: RouteInfo[] 
   const app = express();
   app.disable("x-powered-by");
   app.set("trust proxy", false);
+  // Security headers and the content security policy on every response, API and client alike.
+  app.use(securityHeaders({ production: ctx.config.env === "production" }));
 
   // Order matters where paths overlap: reviewsRoutes' fixed paths (/runs, /runs/compare) come before runsRoutes' /runs/:id.
   const routers: ApiRouter[] = [systemRoutes(ctx), authRoutes(ctx), teamRoutes(ctx), designsRoutes(ctx), limitsRoutes(ctx), reviewsRoutes(ctx), runsRoutes(ctx)];

@@ -4,9 +4,9 @@
  * A run is split into chunks (default 2500 trials; batches of `batchSize` first when the run stops
  * when sure), the chunks run on the pool in parallel, their aggregates merge exactly and the result
  * is finalized in this thread: the same seed gives the same result whatever the pool size or chunk
- * size. A chunk that fails fails its run with the chunk's EngineError; the pool keeps serving
- * other runs (piscina replaces a crashed thread). Cancellation: an AbortSignal aborts the run's
- * queued and running tasks.
+ * size. A chunk that fails fails its run with the chunk's EngineError, or with a WorkerFailure when
+ * its worker thread exited or threw a plain Error; the pool keeps serving other runs (piscina replaces
+ * a crashed thread). Cancellation: an AbortSignal aborts the run's queued and running tasks.
  */
 import { setMaxListeners } from "node:events";
 import os from "node:os";
@@ -18,8 +18,20 @@ import type { Netlist } from "../../shared/engine/netlist";
 import type { RunResult } from "../../shared/engine/result";
 import type { RunOptions } from "../../shared/engine/run-options";
 import { planRun } from "../../shared/engine/run-plan";
+import { createLogger, type Logger } from "../logger";
 import { deserializeEngineError } from "../../shared/engine/task-errors";
 import type { TrialsWorkerResult } from "../../workers/trials.worker";
+
+/**
+ * A chunk task that failed outside the engine: its worker thread exited or threw a plain Error (not an
+ * EngineError). The run fails with code WORKER_FAILED and this message; piscina replaces the thread.
+ */
+export class WorkerFailure extends Error {
+  constructor(message: string, options?: { cause?: unknown }) {
+    super(message, options);
+    this.name = "WorkerFailure";
+  }
+}
 
 /** Pool settings. */
 export interface TrialPoolOptions {
@@ -27,6 +39,8 @@ export interface TrialPoolOptions {
   size?: number;
   /** trials per chunk task (default 2500) */
   chunkSize?: number;
+  /** where the pool's own errors go (default: a JSON log line on stderr, see the `error` listener below) */
+  log?: Logger;
 }
 
 /** Per-run controls. */
@@ -63,14 +77,22 @@ export function createTrialPool(options: TrialPoolOptions = {}): TrialPool {
     maxThreads: size,
     idleTimeout: 60_000,
   });
+  // Piscina emits 'error' for what belongs to no task: a reply from a thread it has just terminated (a running
+  // chunk of a run that was aborted after another chunk failed) or the death of an idle thread. An EventEmitter
+  // 'error' without a listener throws, which would stop the whole server; log it instead (the tasks concerned
+  // have already been rejected, and piscina replaces the thread).
+  const log = options.log ?? createLogger();
+  piscina.on("error", (err: Error) => log.warn("trial_pool_stray_error", { message: String(err?.message ?? err).slice(0, 300) }));
 
+  /** One chunk on the pool (piscina runs one task per thread at a time: a thread's death takes only its own chunk). */
   async function runChunk(base: Omit<ChunkTask, "start" | "count">, chunk: { start: number; count: number }, signal?: AbortSignal): Promise<TrialAggregate> {
     let out: TrialsWorkerResult;
     try {
       out = await piscina.run({ ...base, ...chunk }, { signal });
     } catch (err) {
       if (signal?.aborted || (err as Error)?.name === "AbortError") throw new EngineError("CANCELLED", "run cancelled");
-      throw err;
+      const message = err instanceof Error ? err.message : String(err);
+      throw new WorkerFailure(`A worker failed on trials ${chunk.start}..${chunk.start + chunk.count - 1}: ${message}`, { cause: err });
     }
     if (out instanceof Uint8Array) return decodeAggregate(out);
     throw deserializeEngineError(out.error);

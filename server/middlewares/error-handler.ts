@@ -16,14 +16,26 @@ export function errorHandler(log: Logger) {
   return (error: unknown, req: Request, res: Response, _next: NextFunction) => {
     const known = toAppError(error);
     if (known) {
+      if (!(error instanceof AppError) && (known.code === "DATABASE_UNAVAILABLE" || known.code === "CONFLICT")) {
+        log.warn("request_database_transient", { method: req.method, path: loggablePath(req.path), code: known.code, cause: (error as HttpError)?.code ?? (error as { driverError?: HttpError })?.driverError?.code });
+      }
       if (known.headers) res.set(known.headers);
       res.status(known.status).json({ error: { code: known.code, message: known.message, ...(known.fields ? { fields: known.fields } : {}) } });
       return;
     }
     const err = error as Error;
-    log.error("request_failed", { method: req.method, path: req.path, error: err?.name, message: err?.message, stack: err?.stack });
+    log.error("request_failed", { method: req.method, path: loggablePath(req.path), error: err?.name, message: err?.message, stack: err?.stack });
     res.status(500).json({ error: { code: "INTERNAL", message: "Something went wrong on our side; it has been logged." } });
   };
+}
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+/**
+ * The request path for a log line, with every segment that may be a secret token replaced by `:token`: a path may
+ * carry one (/auth/invitations/<token>). Record ids (UUIDs) and short words stay, so the line still says what failed.
+ */
+export function loggablePath(path: string): string {
+  return path.split("/").map((seg) => (seg.length >= 16 && !UUID.test(seg) ? ":token" : seg)).join("/");
 }
 
 function toAppError(error: unknown): AppError | null {
@@ -35,12 +47,40 @@ function toAppError(error: unknown): AppError | null {
   const http = error as HttpError;
   if (http?.type === "entity.parse.failed") return new AppError("INVALID_JSON", "The request body is not valid JSON.");
   if (http?.type === "entity.too.large") return new AppError("PAYLOAD_TOO_LARGE", `The request body is larger than the limit of ${http.limit} bytes.`);
+  // body-parser's other refusals (found by tests/integration/fuzz-netlists.test.ts): a charset or Content-Encoding
+  // it cannot decode, a body shorter or longer than its Content-Length. The client's fault, so 400, not 500.
+  if (http?.type === "charset.unsupported" || http?.type === "encoding.unsupported" || http?.type === "request.size.invalid" || http?.type === "request.aborted") {
+    return new AppError("INVALID_JSON", `The request body cannot be read (${(error as Error).message}); send UTF-8 JSON.`);
+  }
+  // Express's router cannot decode a path parameter with a bad %-escape (GET /api/runs/%): a URIError with status 400.
+  if (error instanceof URIError && http?.status === 400) return new AppError("VALIDATION_FAILED", "The URL holds a malformed %-escape.", { fields: { path: "malformed %-escape" } });
   if (isDatabaseDown(http)) return new AppError("DATABASE_UNAVAILABLE", "The database is not reachable right now; try again shortly.", { headers: { "Retry-After": "5" } });
+  // A deadlock victim or a lock wait that timed out: the transaction was rolled back whole, so nothing was saved
+  // and the same request may simply be sent again.
+  if (isLockConflict(http)) return new AppError("CONFLICT", "This request collided with another one changing the same records; nothing was saved. Try again.", { headers: { "Retry-After": "1" } });
   return null;
 }
 
-const DOWN_CODES = new Set(["ECONNREFUSED", "PROTOCOL_CONNECTION_LOST", "ETIMEDOUT", "ECONNRESET", "ER_CON_COUNT_ERROR", "EPIPE"]);
-function isDatabaseDown(error: HttpError): boolean {
-  const code = error?.code ?? (error as { driverError?: HttpError })?.driverError?.code;
-  return typeof code === "string" && DOWN_CODES.has(code);
+const DOWN_CODES = new Set([
+  "ECONNREFUSED", "PROTOCOL_CONNECTION_LOST", "ETIMEDOUT", "ECONNRESET", "ER_CON_COUNT_ERROR", "EPIPE", "ENOTFOUND", "EHOSTUNREACH",
+  "ER_SERVER_SHUTDOWN", "PROTOCOL_SEQUENCE_TIMEOUT", "POOL_CLOSED",
+]);
+
+function isLockConflict(error: unknown): boolean {
+  const e = error as HttpError & { driverError?: HttpError } | null | undefined;
+  const code = e?.code ?? e?.driverError?.code;
+  return code === "ER_LOCK_DEADLOCK" || code === "ER_LOCK_WAIT_TIMEOUT";
+}
+
+/**
+ * True when an error says the database cannot be reached (refused or lost connection, server shutting down), as
+ * mysql2 reports it directly or wrapped by TypeORM (`driverError`). Such errors answer 503 DATABASE_UNAVAILABLE with
+ * Retry-After, and the run queue retries its writes on them.
+ */
+export function isDatabaseDown(error: unknown): boolean {
+  const e = error as HttpError & { driverError?: HttpError; cause?: HttpError; message?: string } | null | undefined;
+  const code = e?.code ?? e?.driverError?.code ?? e?.cause?.code;
+  if (typeof code === "string" && DOWN_CODES.has(code)) return true;
+  // mysql2 on a connection a fatal error has already closed (no code of its own)
+  return typeof e?.message === "string" && /connection is in closed state|Connection lost: The server closed the connection/i.test(e.message);
 }

@@ -11,14 +11,23 @@
  *   `running` (a cancel that won the race keeps its `cancelled`).
  * - Cancel: the run's AbortController aborts its chunks on the pool.
  * - When a run ends done or failed, its launcher gets a mail (failures to send are logged only).
+ * - Faults: a chunk whose worker thread exits or throws a plain Error fails its run with code
+ *   WORKER_FAILED and the worker's message (the pool replaces the thread; later runs are unaffected).
+ *   While the database is unreachable, the end of a run (result, failure or cancel) is kept in memory
+ *   and its write retried with backoff (250 ms doubling to 5 s) until it succeeds, so a finished run is
+ *   never lost; a failed look for queued runs is retried the same way, so runs accepted before an outage
+ *   start once the database is back. When the queue is closed while the database is still down, the
+ *   run stays `running` in the database and the next start re-queues it. No promise of the queue is
+ *   left rejected (an unhandled rejection would stop the server).
  */
 import type { DataSource } from "typeorm";
 import type { ServerConfig } from "../config/env";
-import type { TrialPool } from "../engine/trial-pool";
+import { WorkerFailure, type TrialPool } from "../engine/trial-pool";
 import { Design, DesignRevision, Run, RunResultRow, User } from "../entities";
 import type { RunState } from "../entities/run.entity";
 import type { Logger } from "../logger";
 import type { Mailer } from "../mail/mailer";
+import { isDatabaseDown } from "../middlewares/error-handler";
 import { EngineError } from "../../shared/engine/errors";
 import type { RunResult } from "../../shared/engine/result";
 import type { RunOptions } from "../../shared/engine/run-options";
@@ -59,6 +68,8 @@ export interface RunQueueDeps {
   maxRunning?: number;
   /** default 500 ms */
   progressIntervalMs?: number;
+  /** first retry delay of a write or a look for queued runs that failed because the database was down; default 250 ms, doubling to 5 s */
+  retryMs?: number;
 }
 
 interface Active {
@@ -105,6 +116,42 @@ export function createRunQueue(deps: RunQueueDeps): RunQueue {
   let closed = false;
   let pumping: Promise<void> | null = null;
   let again = false;
+  const firstRetryMs = deps.retryMs ?? 250;
+  let pumpRetryMs = firstRetryMs;
+  let pumpRetry: NodeJS.Timeout | null = null;
+  const sleepers = new Set<() => void>();
+  const sleep = (ms: number) =>
+    new Promise<void>((resolve) => {
+      const wake = () => {
+        clearTimeout(timer);
+        sleepers.delete(wake);
+        resolve();
+      };
+      const timer = setTimeout(wake, ms);
+      sleepers.add(wake);
+    });
+
+  /**
+   * Runs a write of a run's outcome; while the database is down it is retried with backoff (until the queue is
+   * closed: the run then stays `running` and the next start re-queues it). Returns undefined when it gave up.
+   */
+  async function persist<T>(runId: string, what: string, write: () => Promise<T>): Promise<T | undefined> {
+    let delay = firstRetryMs;
+    for (let attempt = 1; ; attempt++) {
+      try {
+        return await write();
+      } catch (err) {
+        const down = isDatabaseDown(err);
+        if (!down || closed) {
+          log.error("run_write_failed", { runId, what, attempt, databaseDown: down, message: (err as Error).message });
+          return undefined;
+        }
+        if (attempt === 1) log.warn("run_write_waiting_for_database", { runId, what, message: (err as Error).message });
+        await sleep(delay);
+        delay = Math.min(delay * 2, 5000);
+      }
+    }
+  }
 
   const emit = (runId: string, event: RunEvent) => {
     for (const l of listeners.get(runId) ?? []) {
@@ -155,19 +202,33 @@ export function createRunQueue(deps: RunQueueDeps): RunQueue {
           next.startedAt = startedAt;
           const a: Active = { controller: new AbortController(), startedMs: Date.now(), done: 0, total: next.trialsTotal, lastPushMs: 0, cancelled: false };
           active.set(next.id, a);
-          const p = execute(next, a).finally(() => {
-            executions.delete(p);
-            active.delete(next.id);
-            void pump();
-          });
+          const p = execute(next, a)
+            .catch((err) => log.error("run_execution_failed", { runId: next.id, message: (err as Error).message, stack: (err as Error)?.stack }))
+            .finally(() => {
+              executions.delete(p);
+              active.delete(next.id);
+              void pump();
+            });
           executions.add(p);
         }
       } while (again && !closed);
+      pumpRetryMs = firstRetryMs;
     })()
-      .catch((err) => log.error("run_queue_pump_failed", { message: (err as Error).message }))
+      .catch((err) => {
+        log.error("run_queue_pump_failed", { message: (err as Error).message, retryMs: pumpRetryMs });
+        // Look again later (the database may be down): runs accepted earlier must not wait for the next kick.
+        if (!closed && !pumpRetry) {
+          pumpRetry = setTimeout(() => {
+            pumpRetry = null;
+            void pump();
+          }, pumpRetryMs);
+          pumpRetry.unref();
+          pumpRetryMs = Math.min(pumpRetryMs * 2, 5000);
+        }
+      })
       .finally(() => {
         pumping = null;
-        void checkIdle();
+        void checkIdle().catch((err) => log.error("run_queue_idle_check_failed", { message: (err as Error).message }));
       });
     return pumping;
   }
@@ -186,31 +247,49 @@ export function createRunQueue(deps: RunQueueDeps): RunQueue {
         .catch((err) => log.error("run_progress_write_failed", { runId: run.id, message: (err as Error).message }));
       emit(run.id, liveOf(run.id)!);
     };
-    let final: RunState;
+    // 1. Compute (the pool), 2. store the outcome (retried while the database is down), 3. tell listeners.
+    let result: RunResult | null = null;
+    let failure: unknown = null;
     try {
-      const result = await getPool().runMonteCarlo(run.netlist, run.limits, run.options as unknown as RunOptions, { signal: a.controller.signal, onProgress });
-      await writing;
-      final = (await saveResult(run, result)) ? "done" : "cancelled";
-      if (final === "done") await mailLauncher(run, "done", result);
+      result = await getPool().runMonteCarlo(run.netlist, run.limits, run.options as unknown as RunOptions, { signal: a.controller.signal, onProgress });
     } catch (err) {
-      await writing;
-      if (closed && !a.cancelled) {
-        // Server stopping: leave the run for the next start.
-        await runs().update({ id: run.id, state: "running" }, { state: "queued", startedAt: null, trialsDone: 0 }).catch(() => undefined);
+      failure = err;
+    }
+    await writing;
+    let final: RunState;
+    if (result) {
+      const saved = await persist(run.id, "result", () => saveResult(run, result));
+      if (saved === undefined) {
+        if (closed) return; // left `running`: the next start re-runs it to the same result
+        failure = new Error("the result could not be stored");
+      } else {
+        final = saved ? "done" : "cancelled";
+        if (final === "done") await mailLauncher(run, "done", result);
+        emit(run.id, { type: "end", state: final });
         return;
       }
-      if (a.cancelled || (err instanceof EngineError && err.code === "CANCELLED")) {
-        final = "cancelled";
-        await runs().update({ id: run.id, state: "running" }, { state: "cancelled", finishedAt: new Date() }).catch(() => undefined);
-      } else {
-        final = "failed";
-        const code = err instanceof EngineError ? err.code : "INTERNAL";
-        const message = err instanceof Error ? err.message : String(err);
-        if (!(err instanceof EngineError)) log.error("run_failed", { runId: run.id, message, stack: (err as Error)?.stack });
-        const res = await runs().update({ id: run.id, state: "running" }, { state: "failed", errorCode: code, errorMessage: message.slice(0, 1000), finishedAt: new Date(), trialsDone: a.done });
-        if (res.affected === 1) await mailLauncher(run, "failed", undefined, message);
-        else final = "cancelled";
-      }
+    }
+    const err = failure;
+    if (closed && !a.cancelled) {
+      // Server stopping: leave the run for the next start.
+      await runs().update({ id: run.id, state: "running" }, { state: "queued", startedAt: null, trialsDone: 0 }).catch(() => undefined);
+      return;
+    }
+    if (a.cancelled || (err instanceof EngineError && err.code === "CANCELLED")) {
+      final = "cancelled";
+      await persist(run.id, "cancelled", () => runs().update({ id: run.id, state: "running" }, { state: "cancelled", finishedAt: new Date() }));
+    } else {
+      final = "failed";
+      const code = err instanceof EngineError ? err.code : err instanceof WorkerFailure ? "WORKER_FAILED" : "INTERNAL";
+      const message = err instanceof Error ? err.message : String(err);
+      if (!(err instanceof EngineError)) log.error("run_failed", { runId: run.id, code, message, stack: (err as Error)?.stack });
+      const res = await persist(run.id, "failed", () =>
+        runs().update({ id: run.id, state: "running" }, { state: "failed", errorCode: code, errorMessage: message.slice(0, 1000), finishedAt: new Date(), trialsDone: a.done }),
+      );
+      if (res === undefined) {
+        if (closed) return; // left `running`: the next start re-queues it
+      } else if (res.affected === 1) await mailLauncher(run, "failed", undefined, message);
+      else final = "cancelled"; // a cancel won the race
     }
     emit(run.id, { type: "end", state: final });
   }
@@ -302,6 +381,9 @@ export function createRunQueue(deps: RunQueueDeps): RunQueue {
     },
     async close() {
       closed = true;
+      if (pumpRetry) clearTimeout(pumpRetry);
+      pumpRetry = null;
+      for (const wake of [...sleepers]) wake();
       for (const a of active.values()) a.controller.abort();
       await pumping;
       await Promise.allSettled([...executions]);

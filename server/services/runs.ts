@@ -123,9 +123,11 @@ export async function createRun(ctx: AppContext, user: { id: string; name: strin
     startedAt: null,
     finishedAt: null,
   });
+  // Lock the revision before inserting the run: the insert's foreign-key check takes a shared lock on the revision
+  // row, and two concurrent launches that both held it and then asked to update it deadlocked (seen with 50 at once).
   await ctx.dataSource.transaction(async (m) => {
-    await m.getRepository(Run).save(run);
     if (!revision.locked) await m.getRepository(DesignRevision).update({ id: revision.id }, { locked: true });
+    await m.getRepository(Run).save(run);
   });
   ctx.runQueue.kick();
   return run;

@@ -72,6 +72,7 @@ export class Decoder {
       if (f === undefined) throw fileError(`not a number ("${token}")`, line, "frequency");
       if (!(f >= 0)) throw fileError(`must be ≥ 0 (got ${token})`, line, "frequency");
       const hz = f * this.option.scale;
+      if (!Number.isFinite(hz)) throw fileError(`out of range (${token} is not a finite frequency in Hz)`, line, "frequency");
       const prev = this.freqs.length > 0 ? this.freqs[this.freqs.length - 1] : -1;
       if (hz <= prev) {
         if (this.version === "1.1" && this.ports === 2) return false;
@@ -131,10 +132,17 @@ export class Decoder {
         re = mag * Math.cos(b * DEG);
         im = mag * Math.sin(b * DEG);
       }
+      // A huge dB value (or magnitude × angle) overflows to ±Infinity: refuse it rather than store a value JSON cannot hold.
+      if (!Number.isFinite(re) || !Number.isFinite(im)) {
+        throw fileError(`out of range (${String(a)} ${String(b)} is not a finite complex value)`, this.recLine, this.fieldName(1 + 2 * k));
+      }
       setEntry(m, P, i, j, re, im);
       if (this.matrix !== "full" && i !== j) setEntry(m, P, j, i, re, im);
     }
     if (param !== "S") this.convertToS();
+    for (let t = 0; t < m.length; t++) {
+      if (!Number.isFinite(m[t])) throw fileError(`cannot be converted to S at ${String(this.rec[0])} Hz (values out of range)`, this.recLine, `${param} data`);
+    }
     for (let t = 0; t < m.length; t++) this.s.push(m[t]);
     this.freqs.push(this.rec[0]);
     this.count++;

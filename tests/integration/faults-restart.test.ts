@@ -1,0 +1,160 @@
+import { spawn, type ChildProcess } from "node:child_process";
+import { randomBytes, randomUUID } from "node:crypto";
+import { createServer } from "node:net";
+import mysql from "mysql2/promise";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { hashPassword } from "../../server/auth/passwords";
+import { loadConfig } from "../../server/config/env";
+import { createDataSource, openAndMigrate } from "../../server/db/data-source";
+import { createTrialPool } from "../../server/engine/trial-pool";
+import { Run, RunResultRow, User } from "../../server/entities";
+import { toStoredResult } from "../../server/services/run-queue";
+import type { RunOptions } from "../../shared/engine/run-options";
+import type { TestContext } from "../helpers/test-context";
+import { makeRunFixture, type RunFixture } from "./access-samples/runs";
+
+// The server killed (SIGKILL) with one run running and three queued: a real server process (node --import tsx
+// server/index.ts) on a fresh database of the test MariaDB is killed, a second one is started on the same database,
+// and every accepted run finishes with exactly the stored result an uninterrupted run of the same inputs and seed
+// gives (the interrupted one is re-run from its stored netlist, limits, options and seed). Nothing accepted is lost.
+
+const PASSWORD = "correct horse battery staple";
+const base = loadConfig(process.env);
+const dbName = `lotwise_kill_${process.pid}_${randomBytes(3).toString("hex")}`;
+const dbConfig = { ...base.db, name: dbName };
+const ds = createDataSource(dbConfig, { poolSize: 3 });
+const children = new Set<ChildProcess>();
+let user: User;
+let f: RunFixture;
+
+const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+async function until<T>(what: string, probe: () => Promise<T | null | undefined | false>, ms = 30_000): Promise<T> {
+  const end = Date.now() + ms;
+  for (;;) {
+    const v = await probe().catch(() => null);
+    if (v) return v;
+    if (Date.now() > end) throw new Error(`timed out waiting for ${what}`);
+    await sleep(100);
+  }
+}
+
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const s = createServer();
+    s.once("error", reject);
+    s.listen(0, "127.0.0.1", () => {
+      const port = (s.address() as { port: number }).port;
+      s.close(() => resolve(port));
+    });
+  });
+}
+
+/** Starts `node --import tsx server/index.ts` on the test database; resolves once /api/health answers. */
+async function startServerProcess(): Promise<{ child: ChildProcess; origin: string; output: () => string }> {
+  const port = await freePort();
+  const origin = `http://127.0.0.1:${port}`;
+  let output = "";
+  const child = spawn(process.execPath, ["--import", "tsx", "server/index.ts"], {
+    cwd: process.cwd(),
+    env: {
+      ...process.env, NODE_ENV: "test", LOTWISE_HOST: "127.0.0.1", LOTWISE_PORT: String(port), LOTWISE_PUBLIC_ORIGIN: origin,
+      LOTWISE_DB_NAME: dbName, LOTWISE_WORKERS: "1", LOTWISE_MAX_RUNNING: "1", LOTWISE_CLIENT_DIR: ".tmp/no-client",
+      LOTWISE_MAIL_SINK_PORT: "9", LOTWISE_LOG_LEVEL: "warn",
+    },
+    stdio: ["ignore", "pipe", "pipe"],
+  });
+  children.add(child);
+  child.once("exit", () => children.delete(child));
+  child.stdout!.on("data", (d) => (output += d));
+  child.stderr!.on("data", (d) => (output += d));
+  await until("the server to listen", async () => {
+    if (child.exitCode !== null) throw new Error(`server exited: ${output}`);
+    return (await fetch(`${origin}/api/health`)).ok;
+  }, 30_000).catch((err: Error) => {
+    throw new Error(`${err.message}\n${output}`);
+  });
+  return { child, origin, output: () => output };
+}
+
+async function signIn(origin: string): Promise<string> {
+  const res = await fetch(`${origin}/api/auth/sign-in`, {
+    method: "POST", headers: { "content-type": "application/json", origin }, body: JSON.stringify({ email: user.email, password: PASSWORD }),
+  });
+  expect(res.status).toBe(200);
+  return res.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+}
+
+beforeAll(async () => {
+  if (!process.env.LOTWISE_TEST_DB_READY) throw new Error("run through `npm test`");
+  const admin = await mysql.createConnection({ host: base.db.host, port: base.db.port, user: base.db.user, password: base.db.password });
+  await admin.query(`CREATE DATABASE \`${dbName}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
+  await admin.end();
+  await openAndMigrate(ds);
+  user = ds.getRepository(User).create({
+    id: randomUUID(), email: "restart@lotwise.test", name: "Restart Tester", roles: ["designer"], active: true, passwordHash: await hashPassword(PASSWORD),
+  });
+  await ds.getRepository(User).insert(user);
+  f = await makeRunFixture({ ctx: { dataSource: ds } } as unknown as TestContext, user, { name: "Restart low-pass" });
+}, 30_000);
+
+afterAll(async () => {
+  for (const c of children) c.kill("SIGKILL");
+  if (ds.isInitialized) {
+    await ds.query(`DROP DATABASE \`${dbName}\``);
+    await ds.destroy();
+  }
+}, 30_000);
+
+describe("server killed mid-run", () => {
+  it("loses no accepted run: the queued ones run, the interrupted one re-runs to the uninterrupted result", async () => {
+    const first = await startServerProcess();
+    const cookie = await signIn(first.origin);
+    const submit = async (trials: number, seed: number, extra: Record<string, unknown> = {}) => {
+      const res = await fetch(`${first.origin}/api/runs`, {
+        method: "POST", headers: { "content-type": "application/json", origin: first.origin, cookie },
+        body: JSON.stringify({ revisionId: f.revision.id, limitSetId: f.limitSet.id, trials, seed, ...extra }),
+      });
+      const body = (await res.json()) as { run: { id: string } };
+      expect(res.status, JSON.stringify(body)).toBe(201);
+      return body.run.id;
+    };
+    const ids = [await submit(7500, 31), await submit(3000, 32), await submit(2000, 33, { corners: [0, 70] }), await submit(1500, 34)];
+    const running = await until("the first run to be running with progress stored", async () => {
+      const r = await ds.getRepository(Run).findOneByOrFail({ id: ids[0] });
+      return r.state === "running" && r.trialsDone > 0 ? r : null;
+    });
+
+    first.child.kill("SIGKILL");
+    await until("the first server to die", async () => first.child.exitCode !== null || first.child.signalCode !== null);
+    const atKill = await ds.getRepository(Run).find({ order: { queuedAt: "ASC" } });
+    expect(atKill.map((r) => r.state)).toEqual(["running", "queued", "queued", "queued"]);
+    console.log(`server killed (SIGKILL) at ${running.trialsDone}/${running.trialsTotal} trials of the first run; three runs queued`);
+
+    const second = await startServerProcess();
+    try {
+      const done = await until("every run to be done", async () => {
+        const rows = await ds.getRepository(Run).find({ order: { queuedAt: "ASC" } });
+        return rows.every((r) => r.state === "done") ? rows : null;
+      }, 40_000);
+      expect(done.map((r) => r.id)).toEqual(ids);
+      for (let k = 1; k < done.length; k++) expect(done[k].startedAt!.getTime()).toBeGreaterThanOrEqual(done[k - 1].finishedAt!.getTime());
+
+      // Each stored result equals the uninterrupted run of the same stored inputs and seed.
+      const pool = createTrialPool({ size: 1 });
+      try {
+        for (const run of done) {
+          const row = await ds.getRepository(RunResultRow).findOneByOrFail({ runId: run.id });
+          const ref = await pool.runMonteCarlo(run.netlist, run.limits, run.options as unknown as RunOptions);
+          expect(row.result).toEqual(JSON.parse(JSON.stringify(toStoredResult(ref))));
+          expect(run).toMatchObject({ trialsDone: ref.trials, passed: ref.passed, yieldFraction: ref.yield });
+        }
+      } finally {
+        await pool.close();
+      }
+      console.log(`after restart: ${done.length}/${done.length} runs done, results identical to uninterrupted runs (yields ${done.map((r) => r.yieldFraction!.toFixed(4)).join(", ")})`);
+    } finally {
+      second.child.kill("SIGTERM");
+      await until("the second server to stop", async () => second.child.exitCode !== null || second.child.signalCode !== null, 15_000).catch(() => second.child.kill("SIGKILL"));
+    }
+  }, 90_000);
+});
