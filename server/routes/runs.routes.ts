@@ -76,7 +76,9 @@ export function runsRoutes(ctx: AppContext): ApiRouter {
         if (e.type === "end") finish(e.state);
       };
       const unsubscribe = ctx.runQueue.subscribe(runId, onEvent);
-      const timer = setInterval(() => void fromDb().catch(() => finish("failed")), SSE_INTERVAL_MS);
+      // A failed read (the database briefly away) skips a tick: the run survives an outage, so the stream must not
+      // report it as failed; the next tick reads again.
+      const timer = setInterval(() => void fromDb().catch(() => undefined), SSE_INTERVAL_MS);
       const cleanup = () => {
         clearInterval(timer);
         unsubscribe();
