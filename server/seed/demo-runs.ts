@@ -26,7 +26,7 @@ export async function seedDemoRuns(ctx: AppContext, designs: DemoDesignsSummary[
     const { runs } = await createSweep(ctx, { ...analyst, roles: analyst.roles, active: analyst.active }, {
       ...base,
       name: "Inductor grade",
-      targetYield: 0.95,
+      targetYield: 0.85,
       assignments: [
         { label: "L ±10 % (K)", gradeOverrides: inductors("K") },
         { label: "L ±5 % (J)", gradeOverrides: inductors("J") },
