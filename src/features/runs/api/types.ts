@@ -1,4 +1,4 @@
-import type { EnvelopeSeries, RuleSummary } from "@shared/engine/result";
+import type { EnvelopeSeries, RuleSummary, RunResult } from "@shared/engine/result";
 import type { Histogram } from "@shared/engine/stats/histogram";
 /** A run's life: queued → running → done | failed | cancelled (same words as the server's run entity). */
 export const RUN_STATES = ["queued", "running", "done", "failed", "cancelled"] as const;
@@ -40,22 +40,8 @@ export type HistogramJson = Histogram;
 export type RuleSummaryJson = RuleSummary;
 export type EnvelopeSeriesJson = EnvelopeSeries;
 
-/** The engine's finalizeRun result made JSON-safe, plus the grid and nominal |S| dB curves. */
-export type RunResultJson = {
-  seed: number | string;
-  trials: number;
-  passed: number;
-  yield: number;
-  wilson95: [number, number];
-  clopperPearson95: [number, number];
-  halfWidth95: number;
-  ruleFailures: number[];
-  failingTrials: number[];
-  rules: RuleSummaryJson[];
-  corners: number[];
-  envelopes: { freqs: number[]; percentiles: number[]; binDb: number; spanDb: number; series: EnvelopeSeriesJson[] };
-  sensitivity: { sampleSize: number; parts: string[]; rho: (number | null)[][] };
-  stop: { trialCap: number; targetHalfWidth: number | null; stoppedEarly: boolean };
+/** The engine's finalizeRun result (already JSON-safe), plus the grid and nominal |S| dB curves the server adds. */
+export type RunResultJson = RunResult & {
   freqs?: number[];
   nominal?: Record<string, number[]>;
 };
