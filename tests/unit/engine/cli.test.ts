@@ -73,7 +73,7 @@ describe("lotwise CLI", { timeout: 180_000 }, () => {
     expect(synth.code).toBe(0);
     const ladder = JSON.parse(synth.stdout);
     expect(ladder.parts.length).toBe(5);
-    // Pozar Example 8.3 (REFERENCES.md §3): C1 = 0.984 pF for 5th-order maximally flat, 2 GHz, 50 ohm, shunt first
+    // Pozar Example 8.3 (REFERENCES.md §3 [S values, example no. M]): C1 = 0.984 pF for 5th-order maximally flat, 2 GHz, 50 ohm, shunt first
     expect(ladder.parts[0].value * 1e12).toBeCloseTo(0.984, 3);
     // [C] Butterworth g1 = 2·sin(π/(2n)) (closed form), C1 = g1/(2π·f·R0)
     expect(ladder.parts[0].value).toBeCloseTo((2 * Math.sin(Math.PI / 10)) / (2 * Math.PI * 2e9 * 50), 20);

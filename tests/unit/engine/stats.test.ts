@@ -3,7 +3,7 @@ import jstatModule from "jstat";
 import { clopperPearsonInterval, wilsonHalfWidth, wilsonInterval } from "../../../shared/engine/stats/intervals";
 import { exactSumAdd, exactSumCanonicalize, exactSumMerge, exactSumValue, type ExactSum } from "../../../shared/engine/stats/exact-sum";
 import { histogramQuantile, histogramSlot } from "../../../shared/engine/stats/histogram";
-import { normalCdf, normalQuantile } from "../../../shared/engine/stats/normal";
+import { normalCdf, normalQuantile, normalQuantileFast } from "../../../shared/engine/stats/normal";
 import { EngineError } from "../../../shared/engine/errors";
 import { createTrialStream } from "../../../shared/engine/random";
 import { midranks, pearson } from "../../../shared/engine/stats/rank-correlation";
@@ -93,11 +93,42 @@ describe("Wilson and Clopper–Pearson intervals", () => {
 
 describe("normal distribution helpers", () => {
   it("Φ and Φ⁻¹ agree with jStat", () => {
-    // [C] jstat 1.9.6 normal.cdf/inv (accurate to ~1e-11 in the range used here)
+    // Oracle: jstat 1.9.6 normal.cdf/inv. [C] measured at these points: |Δcdf| ≤ 1.2e-16, |Δinv| ≤ 1.1e-14, so the
+    // 1e-12 / 1e-9 bounds leave margin. (REFERENCES.md §6's "jstat ~5e-11" is about beta.inv CP bounds, not these.)
     for (const z of [-4, -3, -1.5, 0, 0.7, 2, 3, 4]) expect(Math.abs(normalCdf(z) - jStat.normal.cdf(z, 0, 1))).toBeLessThan(1e-12);
     for (const p of [0.001, 0.025, 0.3, 0.5, 0.9, 0.975, 0.99865]) expect(Math.abs(normalQuantile(p) - jStat.normal.inv(p, 0, 1))).toBeLessThan(1e-9);
     expect(normalQuantile(0.975)).toBeCloseTo(1.959963985, 9); // REFERENCES.md §6: z(0.975) = 1.959963985
   });
+
+  // IEEE edge cases, as documented in shared/engine/stats/normal.ts: normalCdf "NaN in, NaN out" and
+  // Φ(±∞) = 1/0 (limits of ½·erfc(−z/√2)); normalQuantileFast "p outside (0, 1) gives ±Infinity at the ends
+  // and NaN beyond"; normalQuantile passes Acklam's non-finite results through unrefined.
+  it("normalCdf: NaN in gives NaN out", () => {
+    expect(normalCdf(NaN)).toBeNaN();
+  });
+
+  it("normalCdf: Φ(+∞) = 1 and Φ(−∞) = 0", () => {
+    expect(normalCdf(Infinity)).toBe(1);
+    expect(normalCdf(-Infinity)).toBe(0);
+  });
+
+  for (const [name, q] of [
+    ["normalQuantile", normalQuantile],
+    ["normalQuantileFast", normalQuantileFast],
+  ] as const) {
+    it(`${name}: NaN in gives NaN out`, () => {
+      expect(q(NaN)).toBeNaN();
+    });
+
+    it(`${name}: Φ⁻¹(0) = −∞ and Φ⁻¹(1) = +∞`, () => {
+      expect(q(0)).toBe(-Infinity);
+      expect(q(1)).toBe(Infinity);
+    });
+
+    it(`${name}: p outside [0, 1] gives NaN`, () => {
+      for (const p of [-Number.MIN_VALUE, -0.5, -1, 1 + Number.EPSILON, 2, Infinity, -Infinity]) expect(q(p), `p=${p}`).toBeNaN();
+    });
+  }
 });
 
 describe("exact summation", () => {

@@ -67,7 +67,7 @@ describe("worked element values", () => {
   it("Pozar Example 8.3: 2 GHz, 50 ohm, n=5 maximally flat, shunt-C first", () => {
     const net = synthesizeLadder({ family: "butterworth", type: "lowpass", order: 5, cutoff: 2e9, z0: 50 });
     const p = byRef(net);
-    // Pozar 4th ed. Example 8.3 (REFERENCES §3 [S], 3 decimals): C1 = C5 = 0.984 pF, L2 = L4 = 6.438 nH, C3 = 3.183 pF
+    // Pozar 4th ed. Example 8.3 (REFERENCES.md §3 [S values, example no. M], 3 decimals): C1 = C5 = 0.984 pF, L2 = L4 = 6.438 nH, C3 = 3.183 pF
     expect(Math.abs(p.C1.value - 0.984e-12)).toBeLessThan(5e-16);
     expect(Math.abs(p.C5.value - 0.984e-12)).toBeLessThan(5e-16);
     expect(Math.abs(p.L2.value - 6.438e-9)).toBeLessThan(5e-13);

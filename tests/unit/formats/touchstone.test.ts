@@ -570,6 +570,8 @@ describe("writeTouchstone", () => {
 
   it("a zero magnitude in DB reads back as (almost) zero", () => {
     const text = writeTouchstone({ freqs: new Float64Array([1]), s: new Float64Array([0, 0]), ports: 1, z0: 50 }, { format: "DB", unit: "Hz" });
+    // −6000 dB is Lotwise's own writer floor, not a Touchstone-spec value: shared/formats/touchstone.ts writes
+    // 20·log10(max(|S|, 1e-300)) = −6000 dB for |S| = 0 (see its doc comment).
     expect(text).toBe("# Hz S DB R 50\n1 -6000 0\n");
     expect(parseTouchstone(text).s[0]).toBeLessThan(1e-299);
   });
