@@ -19,6 +19,7 @@
  * | srf           | inductor self-resonant frequency                  | `2.4G`             |
  * | esr, esl      | capacitor series resistance and inductance        | `0.2`, `0.5 nH`    |
  * | tempco        | ppm/°C (a trailing "ppm" or "ppm/°C" is allowed)  | `-30`              |
+ * | grade         | the part's grade code in the grade catalogue      | `G`                |
  *
  * Letter codes (IEC 60062:2016): F ±1 %, G ±2 %, J ±5 %, K ±10 %, M ±20 %. B, C, D are ±0.1, ±0.25,
  * ±0.5 pF absolute on a capacitor and ±0.1, ±0.25, ±0.5 % on a resistor; on an inductor they are
@@ -36,12 +37,12 @@ import { FormatError, fileError } from "./format-error";
 // VARIABLES //
 
 /** Limits of the reader, matching the netlist schema (shared/schemas/netlist.ts). */
-export const PARTS_CSV_LIMITS = { maxParts: 500, maxRefLength: 32, maxNodeLength: 64, maxLotLength: 32, maxTolerance: 0.5 } as const;
+export const PARTS_CSV_LIMITS = { maxParts: 500, maxRefLength: 32, maxNodeLength: 64, maxLotLength: 32, maxGradeLength: 40, maxTolerance: 0.5 } as const;
 
 /** Every column, in the order {@link writePartsCsv} writes them. */
 export const PARTS_CSV_COLUMNS = [
   "ref", "kind", "node1", "node2", "value", "tolerance", "distribution", "tolerance_abs",
-  "series", "lot", "q", "q_at", "srf", "esr", "esl", "tempco",
+  "series", "lot", "q", "q_at", "srf", "esr", "esl", "tempco", "grade",
 ] as const;
 
 export type PartsCsvColumn = (typeof PARTS_CSV_COLUMNS)[number];
@@ -111,7 +112,7 @@ export function parsePartsCsv(text: string): PartsCsvResult {
 /**
  * Write parts as CSV that {@link parsePartsCsv} reads back to equal parts.
  *
- * All sixteen columns are written, in {@link PARTS_CSV_COLUMNS} order, with CRLF line ends
+ * All seventeen columns are written, in {@link PARTS_CSV_COLUMNS} order, with CRLF line ends
  * (RFC 4180). Values use an SI prefix when that reads back exactly ("4.7n", "33p"), otherwise the
  * shortest exact decimal; tolerances are fractions ("0.05"). Cells with a comma, quote, line break
  * or outer spaces are quoted.
@@ -140,6 +141,7 @@ export function writePartsCsv(parts: Part[]): string {
       esr: p.esr === undefined ? "" : si(p.esr, k, "esr"),
       esl: p.esl === undefined ? "" : si(p.esl, k, "esl"),
       tempco: p.tempco === undefined ? "" : plain(p.tempco, k, "tempco"),
+      grade: p.grade ?? "",
     };
     rows.push(PARTS_CSV_COLUMNS.map((c) => quote(cells[c])).join(","));
   });
@@ -195,6 +197,9 @@ function readPart(cells: Map<PartsCsvColumn, string>, line: number, warnings: st
   readParasitics(part, cells, line);
   const tempco = cell("tempco").replace(/\s*ppm(\s*\/\s*°?\s*C)?$/i, "");
   if (tempco !== "") part.tempco = plainCell(tempco, line, "tempco");
+  const grade = cell("grade");
+  if (grade.length > PARTS_CSV_LIMITS.maxGradeLength) throw fail("grade", `at most ${PARTS_CSV_LIMITS.maxGradeLength} characters`);
+  if (grade !== "") part.grade = grade;
   return part;
 }
 

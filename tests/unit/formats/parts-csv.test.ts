@@ -128,7 +128,7 @@ describe("parsePartsCsv: columns, cells and CSV syntax", () => {
 
   it("empty optional cells leave the fields out", () => {
     const all = PARTS_CSV_COLUMNS.join(",");
-    const { parts } = parsePartsCsv(`${all}\nC1,C,a,gnd,1n,,,,,,,,,,,\n`);
+    const { parts } = parsePartsCsv(`${all}\nC1,C,a,gnd,1n,,,,,,,,,,,,\n`);
     expect(parts[0]).toEqual({ ref: "C1", kind: "C", nodes: ["a", "gnd"], value: 1e-9 });
   });
 
@@ -312,10 +312,19 @@ describe("writePartsCsv", () => {
 
   it("writes the exact text for one part (hand-written expectation: SI prefix, CRLF, all columns)", () => {
     const text = writePartsCsv([{ ref: "L2", kind: "L", nodes: ["a", "b"], value: 4.7e-9, tolerance: 0.02, q: { value: 40, at: 1e8 } }]);
-    expect(text).toBe(`${PARTS_CSV_COLUMNS.join(",")}\r\nL2,L,a,b,4.7n,0.02,,,,,40,100M,,,,\r\n`);
+    expect(text).toBe(`${PARTS_CSV_COLUMNS.join(",")}\r\nL2,L,a,b,4.7n,0.02,,,,,40,100M,,,,,\r\n`);
   });
 
   it("rejects a part whose value is not finite (INVALID_INPUT)", () => {
     expect(() => writePartsCsv([{ ref: "R1", kind: "R", nodes: ["a", "b"], value: Number.NaN }])).toThrow(expect.objectContaining({ code: "INVALID_INPUT", field: "value" }));
+  });
+});
+
+describe("parts CSV: grade column", () => {
+  it("reads the grade code, writes it back, and refuses one longer than 40 characters", () => {
+    const { parts } = parsePartsCsv("ref,kind,node1,node2,value,tolerance,grade\nC1,C,n1,gnd,33p,2%,G\nL2,L,n1,n2,68n,J,\n");
+    expect(parts.map((p) => p.grade)).toEqual(["G", undefined]);
+    expect(parsePartsCsv(writePartsCsv(parts)).parts).toEqual(parts);
+    expect(() => parsePartsCsv(`ref,kind,node1,node2,value,grade\nC1,C,n1,gnd,33p,${"x".repeat(41)}\n`)).toThrow("line 2: grade: at most 40 characters");
   });
 });

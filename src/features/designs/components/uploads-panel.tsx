@@ -30,7 +30,7 @@ export function UploadsPanel({ designId, measured, overlayId, onOverlay, canUplo
         <FileUpload
           label="Parts file (.csv or .json)"
           accept=".csv,.json,text/csv,application/json"
-          hint="CSV columns: ref, kind, node1, node2, value, tolerance, distribution, tolerance_abs, series, lot, q, q_at, srf, esr, esl, tempco. Ports come from the latest revision. Up to 1 MiB."
+          hint="CSV columns: ref, kind, node1, node2, value, tolerance, distribution, tolerance_abs, series, lot, q, q_at, srf, esr, esl, tempco, grade. Ports come from the latest revision. Up to 1 MiB."
           pending={parts.isPending}
           error={parts.error}
           success={partsDone}
