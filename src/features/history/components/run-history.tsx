@@ -46,7 +46,8 @@ export function RunHistory({ userId }: { userId: string }) {
           {runs.data.runs.length === 0 ? (
             <p className="text-sm text-ink-300">No run matches these filters.</p>
           ) : (
-            <RunsTable runs={runs.data.runs} sort={sort} dir={dir} onSort={onSort} selected={selected} onToggle={toggle} />
+            <RunsTable runs={runs.data.runs} sort={sort} dir={dir} onSort={onSort} selected={selected} onToggle={toggle}
+              page={runs.data.page} pageSize={runs.data.pageSize} total={runs.data.total} onPage={(p) => patch({ page: String(p) })} />
           )}
           <Pager page={runs.data.page} pageSize={runs.data.pageSize} total={runs.data.total} onPage={(p) => patch({ page: String(p) })} />
         </>

@@ -1,13 +1,8 @@
-import { Link } from "react-router-dom";
+import { flexRender, getCoreRowModel, useReactTable, type PaginationState, type SortingState, type Updater } from "@tanstack/react-table";
+import { useMemo } from "react";
 import { Table, TableBody, TableCaption, TableCell, TableHead, TableHeaderCell, TableRow } from "@/components/ui/table";
-import { paths } from "@/config/paths";
-import type { RunQuery } from "@/features/history/api/get-runs";
-import { RunStateBadge } from "@/features/history/components/run-state-badge";
+import { runsTableColumns, type RunColumnMeta, type SortKey } from "@/features/history/components/runs-table-columns";
 import type { RunSummary } from "@/features/runs/api/types";
-import { count, interval, percent } from "@/features/runs/utils/format";
-import { formatDateTime } from "@/utils/format";
-
-type SortKey = NonNullable<RunQuery["sort"]>;
 
 export type RunsTableProps = {
   runs: RunSummary[];
@@ -16,54 +11,72 @@ export type RunsTableProps = {
   onSort: (sort: SortKey) => void;
   selected: string[];
   onToggle: (runId: string) => void;
+  /** The server's page (1-based), page size and total matching runs; the pager below the table moves between pages. */
+  page?: number;
+  pageSize?: number;
+  total?: number;
+  onPage?: (page: number) => void;
 };
 
-/** Stored runs, one row each; the sortable headers ask the server to sort (aria-sort tells which). */
-export function RunsTable({ runs, sort, dir, onSort, selected, onToggle }: RunsTableProps) {
-  const header = (key: SortKey, text: string, className?: string) => (
-    <TableHeaderCell className={className} aria-sort={sort === key ? (dir === "asc" ? "ascending" : "descending") : "none"}>
-      <button type="button" className="uppercase tracking-wide hover:text-paper-100" onClick={() => onSort(key)}>
-        {text} {sort === key ? (dir === "asc" ? "▲" : "▼") : ""}
-      </button>
-    </TableHeaderCell>
-  );
+const resolve = <T,>(updater: Updater<T>, old: T): T => (typeof updater === "function" ? (updater as (old: T) => T)(old) : updater);
+
+/**
+ * Stored runs, one row each, on TanStack Table with manual (server-side) sorting and paging: the rows are the
+ * server's page as given, the sortable headers ask the server to sort (aria-sort tells which).
+ */
+export function RunsTable({ runs, sort, dir, onSort, selected, onToggle, page = 1, pageSize, total, onPage }: RunsTableProps) {
+  const columns = useMemo(() => runsTableColumns(selected, onToggle), [selected, onToggle]);
+  const sorting: SortingState = [{ id: sort, desc: dir === "desc" }];
+  const pagination: PaginationState = { pageIndex: page - 1, pageSize: pageSize ?? Math.max(1, runs.length) };
+  const table = useReactTable({
+    data: runs,
+    columns,
+    getRowId: (run) => run.id,
+    getCoreRowModel: getCoreRowModel(),
+    manualSorting: true,
+    manualPagination: true,
+    enableMultiSort: false,
+    enableSortingRemoval: false,
+    rowCount: total ?? runs.length,
+    state: { sorting, pagination },
+    // The direction is the existing handler's to choose (same column flips it, a new column starts descending).
+    onSortingChange: (updater) => {
+      const key = resolve(updater, sorting)[0]?.id as SortKey | undefined;
+      if (key) onSort(key);
+    },
+    onPaginationChange: (updater) => onPage?.(resolve(updater, pagination).pageIndex + 1),
+  });
   return (
     <Table>
       <TableCaption>Run history</TableCaption>
       <TableHead>
-        <tr>
-          <TableHeaderCell><span className="sr-only">Compare</span></TableHeaderCell>
-          {header("design", "design")}
-          <TableHeaderCell>run</TableHeaderCell>
-          {header("state", "state")}
-          {header("yield", "yield", "text-right")}
-          <TableHeaderCell className="text-right">95 % interval</TableHeaderCell>
-          <TableHeaderCell className="text-right">trials</TableHeaderCell>
-          <TableHeaderCell>by</TableHeaderCell>
-          {header("queuedAt", "queued")}
-          {header("finishedAt", "finished")}
-        </tr>
+        {table.getHeaderGroups().map((group) => (
+          <tr key={group.id}>
+            {group.headers.map((header) => {
+              const { column } = header;
+              const meta = column.columnDef.meta as RunColumnMeta | undefined;
+              const content = flexRender(column.columnDef.header, header.getContext());
+              if (!column.getCanSort()) return <TableHeaderCell key={header.id} className={meta?.headerClassName}>{content}</TableHeaderCell>;
+              const sorted = column.getIsSorted();
+              return (
+                <TableHeaderCell key={header.id} className={meta?.headerClassName} aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}>
+                  <button type="button" className="uppercase tracking-wide hover:text-paper-100" onClick={() => column.toggleSorting()}>
+                    {content} {sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : ""}
+                  </button>
+                </TableHeaderCell>
+              );
+            })}
+          </tr>
+        ))}
       </TableHead>
       <TableBody>
-        {runs.map((run) => (
-          <TableRow key={run.id}>
-            <TableCell>
-              <input type="checkbox" aria-label={`Compare ${run.designName} r${run.revisionNumber} ${run.label || run.id.slice(0, 8)}`} checked={selected.includes(run.id)}
-                disabled={run.state !== "done"} onChange={() => onToggle(run.id)} className="size-4 accent-signal-500" />
-            </TableCell>
-            <TableCell className="font-semibold">{run.designName} <span className="font-mono text-ink-300">r{run.revisionNumber}</span></TableCell>
-            <TableCell>
-              <Link className="font-semibold text-signal-300 underline decoration-signal-600/60" to={paths.app.run.getHref(run.id)}>
-                {run.label || `run ${run.id.slice(0, 8)}`}
-              </Link>
-            </TableCell>
-            <TableCell><RunStateBadge state={run.state} /></TableCell>
-            <TableCell className="whitespace-nowrap text-right font-mono">{percent(run.yield, 1)}</TableCell>
-            <TableCell className="whitespace-nowrap text-right font-mono text-ink-300">{interval(run.wilson95, 1)}</TableCell>
-            <TableCell className="whitespace-nowrap text-right font-mono">{count(run.trialsDone)} / {count(run.trialsTotal)}</TableCell>
-            <TableCell>{run.launchedBy.name}</TableCell>
-            <TableCell className="whitespace-nowrap text-ink-300">{formatDateTime(run.queuedAt)}</TableCell>
-            <TableCell className="whitespace-nowrap text-ink-300">{run.finishedAt ? formatDateTime(run.finishedAt) : "—"}</TableCell>
+        {table.getRowModel().rows.map((row) => (
+          <TableRow key={row.id}>
+            {row.getVisibleCells().map((cell) => (
+              <TableCell key={cell.id} className={(cell.column.columnDef.meta as RunColumnMeta | undefined)?.cellClassName}>
+                {flexRender(cell.column.columnDef.cell, cell.getContext())}
+              </TableCell>
+            ))}
           </TableRow>
         ))}
       </TableBody>
