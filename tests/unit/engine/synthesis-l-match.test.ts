@@ -1,21 +1,12 @@
 import { describe, expect, it } from "vitest";
 import { designLMatch } from "../../../shared/engine/synthesis";
-import { EngineError } from "../../../shared/engine/errors";
 import { compileNetlist, createSweepEvaluator, nominalValues } from "../../../shared/engine/solver";
 import { analyzeLadder } from "../../oracles/abcd-ladder";
+import { expectEngineError as expectCodedError } from "../../helpers/expect-errors";
 
-function expectEngineError(fn: () => unknown, message: RegExp, path: string) {
-  try {
-    fn();
-  } catch (err) {
-    expect(err).toBeInstanceOf(EngineError);
-    expect((err as EngineError).code).toBe("INVALID_INPUT");
-    expect((err as EngineError).message).toMatch(message);
-    expect((err as EngineError).path).toBe(path);
-    return;
-  }
-  throw new Error("expected an EngineError");
-}
+/** INVALID_INPUT with this message and path (every bad-input case of the synthesis helpers). */
+const expectEngineError = (fn: () => unknown, message: RegExp, path: string) => expectCodedError(fn, "INVALID_INPUT", message, path);
+
 
 /** |S11| from the engine's nodal solver at one frequency. */
 function solverS11(net: ReturnType<typeof designLMatch>, f: number): number {

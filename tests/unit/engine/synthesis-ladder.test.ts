@@ -1,9 +1,12 @@
 import { describe, expect, it } from "vitest";
 import { prototypeValues, synthesizeLadder, type LadderSpec } from "../../../shared/engine/synthesis";
-import { EngineError } from "../../../shared/engine/errors";
 import type { Netlist } from "../../../shared/engine/netlist";
 import { compileNetlist, createSweepEvaluator, nominalValues } from "../../../shared/engine/solver";
 import { analyzeLadder, groupDelay, insertionLossDb } from "../../oracles/abcd-ladder";
+import { expectEngineError as expectCodedError } from "../../helpers/expect-errors";
+
+/** INVALID_INPUT with this message and path (every bad-input case of the synthesis helpers). */
+const expectEngineError = (fn: () => unknown, message: RegExp, path: string) => expectCodedError(fn, "INVALID_INPUT", message, path);
 
 const DB3 = 10 * Math.log10(2); // 3.0103 dB: half power
 
@@ -31,18 +34,6 @@ function expectRel(actual: number, expected: number, rtol: number, label: string
   expect(d <= rtol, `${label}: actual ${actual}, expected ${expected}, rel ${d.toExponential(2)} > ${rtol}`).toBe(true);
 }
 
-function expectEngineError(fn: () => unknown, message: RegExp, path: string) {
-  try {
-    fn();
-  } catch (err) {
-    expect(err).toBeInstanceOf(EngineError);
-    expect((err as EngineError).code).toBe("INVALID_INPUT");
-    expect((err as EngineError).message).toMatch(message);
-    expect((err as EngineError).path).toBe(path);
-    return;
-  }
-  throw new Error("expected an EngineError");
-}
 
 /** S21 (complex) and group delay of S21 through the engine's own nodal solver. */
 function solverS21(netlist: Netlist, freqs: number[]) {

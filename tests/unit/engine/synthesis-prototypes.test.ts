@@ -2,8 +2,8 @@ import { describe, expect, it } from "vitest";
 import { findBracketedRoot } from "../../../shared/engine/synthesis/darlington";
 import { findPolynomialRoots } from "../../../shared/engine/synthesis/polynomial";
 import { prototypeValues, synthesizeLadder } from "../../../shared/engine/synthesis";
-import { EngineError } from "../../../shared/engine/errors";
 import { analyzeLadder, groupDelay } from "../../oracles/abcd-ladder";
+import { expectEngineError } from "../../helpers/expect-errors";
 
 /** |actual − expected| ≤ tol for every entry, with a readable failure. */
 function expectRow(actual: readonly number[], expected: readonly number[], tol: number, label: string) {
@@ -14,18 +14,6 @@ function expectRow(actual: readonly number[], expected: readonly number[], tol: 
   });
 }
 
-function expectEngineError(fn: () => unknown, code: string, message: RegExp, path?: string) {
-  try {
-    fn();
-  } catch (err) {
-    expect(err).toBeInstanceOf(EngineError);
-    expect((err as EngineError).code).toBe(code);
-    expect((err as EngineError).message).toMatch(message);
-    if (path !== undefined) expect((err as EngineError).path).toBe(path);
-    return;
-  }
-  throw new Error("expected an EngineError");
-}
 
 describe("Butterworth prototype", () => {
   // Pozar, Microwave Engineering 4th ed. (2011) Table 8.3 (as in REFERENCES.md §1.1), printed to 4 decimals.

@@ -1,8 +1,8 @@
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import type { Part } from "../../../shared/engine/netlist";
-import { FormatError } from "../../../shared/formats/format-error";
 import { PARTS_CSV_COLUMNS, parsePartsCsv, writePartsCsv } from "../../../shared/formats/parts-csv";
+import { expectFormatError } from "../../helpers/expect-errors";
 
 // Sources for expected numbers: SI prefixes per the SI Brochure (BIPM, 9th ed., Table 7);
 // tolerance letter codes per IEC 60062:2016 (REFERENCES.md §7: B ±0.1 pF, C ±0.25 pF, D ±0.5 pF,
@@ -12,20 +12,6 @@ import { PARTS_CSV_COLUMNS, parsePartsCsv, writePartsCsv } from "../../../shared
 const fixture = (name: string) => readFileSync(new URL(`../../fixtures/formats/${name}`, import.meta.url), "utf8");
 const HEAD = "ref,kind,node1,node2,value";
 
-function expectFormatError(run: () => unknown, message: string, line: number, field: string): void {
-  let caught: unknown;
-  try {
-    run();
-  } catch (err) {
-    caught = err;
-  }
-  expect(caught).toBeInstanceOf(FormatError);
-  const e = caught as FormatError;
-  expect(e.message).toBe(message);
-  expect(e.line).toBe(line);
-  expect(e.field).toBe(field);
-  expect(e.code).toBe("INVALID_FILE");
-}
 
 /** One-part table with extra columns. */
 function one(extraHead: string, extraRow: string, base = "X1,C,a,gnd,10p"): string {

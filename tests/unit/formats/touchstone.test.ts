@@ -1,8 +1,8 @@
 import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
-import { FormatError } from "../../../shared/formats/format-error";
 import { parseTouchstone, TOUCHSTONE_LIMITS, writeTouchstone, type TouchstoneData } from "../../../shared/formats/touchstone";
 import { expectClose, expectComplexClose } from "../../helpers/expect-close";
+import { expectFormatError } from "../../helpers/expect-errors";
 
 // Format rules under test: Touchstone File Specification Rev 1.1 and Version 2.0 (IBIS Open Forum),
 // as summarized in shared/REFERENCES.md §8 [S]: option-line defaults GHz / S / MA / R 50, tokens in
@@ -28,21 +28,6 @@ function sAt(d: TouchstoneData, f: number, i: number, j: number): Cx {
   return cx(d.s[k], d.s[k + 1]);
 }
 
-/** Assert a FormatError with exactly this message, line and field. */
-function expectFormatError(run: () => unknown, message: string, line: number | undefined, field: string): void {
-  let caught: unknown;
-  try {
-    run();
-  } catch (err) {
-    caught = err;
-  }
-  expect(caught).toBeInstanceOf(FormatError);
-  const e = caught as FormatError;
-  expect(e.message).toBe(message);
-  expect(e.line).toBe(line);
-  expect(e.field).toBe(field);
-  expect(e.code).toBe("INVALID_FILE");
-}
 
 /**
  * [C] computed by the ABCD cascade of series L = 10 nH then shunt C = 2 pF, 50 Ω ports (Pozar,
