@@ -17,6 +17,9 @@ export type LimitSetEditorProps = {
   /** The valid rules as typed, for the mask over the nominal plot. */
   onRulesChange: (rules: LimitRule[]) => void;
   onSaved: (limitSet: LimitSet) => void;
+  /** Set when this limit set was just created: creating one re-mounts the editor under the new id, which would lose
+   * the mutation's own success state. */
+  justSaved?: boolean;
 };
 
 function gridKeys(event: KeyboardEvent<HTMLElement>) {
@@ -28,7 +31,7 @@ function gridKeys(event: KeyboardEvent<HTMLElement>) {
 }
 
 /** A limit set as a table of rules with its name and lot size; saving is off while a cell is wrong. */
-export function LimitSetEditor({ designId, limitSet, canEdit, onRulesChange, onSaved }: LimitSetEditorProps) {
+export function LimitSetEditor({ designId, limitSet, canEdit, onRulesChange, onSaved, justSaved }: LimitSetEditorProps) {
   const [name, setName] = useState(limitSet?.name ?? "");
   const [lotSize, setLotSize] = useState(String(limitSet?.lotSize ?? 1000));
   const [rows, setRows] = useState<RuleRow[]>(() => (limitSet ? limitSet.limits.rules.map(rowFromRule) : [newRuleRow()]));
@@ -97,7 +100,7 @@ export function LimitSetEditor({ designId, limitSet, canEdit, onRulesChange, onS
       )}
       {cellErrors > 0 && <p className="text-xs text-fault-300">Fix the marked cells to save.</p>}
       {save.error && !Object.keys(serverErrors).length && <Alert tone="error">{save.error.message}</Alert>}
-      {save.isSuccess && <Alert tone="success">Limit set saved.</Alert>}
+      {(save.isSuccess || (justSaved && save.isIdle)) && <Alert tone="success">Limit set saved.</Alert>}
     </div>
   );
 }

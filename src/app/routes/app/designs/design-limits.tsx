@@ -42,6 +42,7 @@ function LimitsPage({ designId }: { designId: string }) {
   const remove = useDeleteLimitSet(designId);
   const [rules, setRules] = useState<LimitRule[]>([]);
   const onRulesChange = useCallback((next: LimitRule[]) => setRules(next), []);
+  const [createdId, setCreatedId] = useState<string | null>(null);
   const selectedId = search.get("set") ?? sets[0]?.id ?? "new";
   const selected = sets.find((s) => s.id === selectedId) ?? null;
   const newest = [...detail.revisions].sort((a, b) => b.number - a.number)[0];
@@ -81,7 +82,7 @@ function LimitsPage({ designId }: { designId: string }) {
           }
         >
           {selected || canEdit ? (
-            <LimitSetEditor key={selected?.id ?? "new"} designId={designId} limitSet={selected} canEdit={canEdit} onRulesChange={onRulesChange} onSaved={(s) => go(s.id)} />
+            <LimitSetEditor key={selected?.id ?? "new"} designId={designId} limitSet={selected} canEdit={canEdit} onRulesChange={onRulesChange} justSaved={createdId !== null && createdId === selected?.id} onSaved={(s) => { if (!selected) setCreatedId(s.id); go(s.id); }} />
           ) : (
             <p className="text-sm text-ink-300">No limit sets yet; a planner adds them.</p>
           )}
