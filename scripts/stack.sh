@@ -1,6 +1,8 @@
 #!/usr/bin/env bash
-# Lotwise's one entry point for `npm start`, `npm run dev`, `npm test` and `npm run bench` on a fresh machine:
-# installs what is missing (npm packages, Debian's MariaDB, and Chromium for the browser tests), then hands over
+# Lotwise's one entry point for `npm start`, `npm run dev`, `npm test`, `npm run bench`, `npm run worker` and
+# `npm run redis` on a fresh machine:
+# installs what is missing (npm packages, Debian's MariaDB, Redis for the distributed-mode tests and benchmark, and
+# Chromium for the browser tests), then hands over
 # to scripts/stack.ts, which starts and stops everything else.
 set -euo pipefail
 cd "$(dirname "$0")/.."
@@ -11,12 +13,18 @@ if [ ! -x node_modules/.bin/tsx ] || [ package-lock.json -nt node_modules/.packa
   npm ci --no-audit --no-fund
 fi
 
-if [ "$mode" = "bench" ]; then
-  exec node_modules/.bin/tsx scripts/bench.ts
+if [ "$mode" = "worker" ]; then
+  # A worker process needs only Node.js and Redis somewhere on the network.
+  exec node_modules/.bin/tsx workers/queue-worker.ts
 fi
 
 missing=()
-command -v mariadbd >/dev/null 2>&1 || [ -x /usr/sbin/mariadbd ] || missing+=(mariadb-server)
+if [ "$mode" != "bench" ] && [ "$mode" != "redis" ]; then
+  command -v mariadbd >/dev/null 2>&1 || [ -x /usr/sbin/mariadbd ] || missing+=(mariadb-server)
+fi
+if [ "$mode" = "test" ] || [ "$mode" = "bench" ] || [ "$mode" = "redis" ]; then
+  command -v redis-server >/dev/null 2>&1 || [ -x /usr/bin/redis-server ] || missing+=(redis-server)
+fi
 if [ "$mode" = "test" ] && [ ! -x /usr/bin/chromium ]; then missing+=(chromium); fi
 if [ "${#missing[@]}" -gt 0 ]; then
   if [ "$(id -u)" -ne 0 ]; then
@@ -26,6 +34,10 @@ if [ "${#missing[@]}" -gt 0 ]; then
   echo "lotwise: installing ${missing[*]} from Debian (apt-get)"
   apt-get update -qq
   DEBIAN_FRONTEND=noninteractive apt-get install -y -qq --no-install-recommends "${missing[@]}" >/dev/null
+fi
+
+if [ "$mode" = "bench" ]; then
+  exec node_modules/.bin/tsx scripts/bench.ts
 fi
 
 if [ "$mode" = "soak" ]; then

@@ -10,8 +10,9 @@ import { seedDemoDesigns } from "../server/seed/demo-designs";
 import { seedDemoRuns } from "../server/seed/demo-runs";
 import { User } from "../server/entities";
 import { ensureDatabase, startMariaDb, type MariaDb } from "./mariadb";
+import { startRedis } from "./redis";
 
-type Mode = "start" | "dev" | "test";
+type Mode = "start" | "dev" | "test" | "redis";
 const mode = (process.argv[2] ?? "start") as Mode;
 const cleanups: Array<() => Promise<void> | void> = [];
 let stopping = false;
@@ -33,8 +34,9 @@ process.once("SIGINT", () => void stopAll(130));
 process.once("SIGTERM", () => void stopAll(143));
 
 async function main(): Promise<number> {
-  if (!["start", "dev", "test"].includes(mode)) throw new Error(`unknown mode "${mode}" (start, dev or test)`);
+  if (!["start", "dev", "test", "redis"].includes(mode)) throw new Error(`unknown mode "${mode}" (start, dev, test or redis)`);
   if (mode === "test") return runTests();
+  if (mode === "redis") return runRedis();
 
   const config = loadConfig();
   const dataDir = process.env.LOTWISE_DATA_DIR ?? ".tmp/mariadb";
@@ -65,6 +67,7 @@ async function main(): Promise<number> {
   }
 
   build();
+  if (config.redisUrl) console.log(`lotwise: distributed mode: runs go to Redis at ${config.redisUrl.replace(/\/\/([^@/]*)@/, "//***@")}; start workers with \`npm run worker\``);
   const server = await startServer(config);
   cleanups.push(() => server.close());
   const queued = await seedDemoRuns(server.ctx, demo.designs, demoEmail("analyst"));
@@ -103,6 +106,23 @@ async function runTests(): Promise<number> {
   }
   console.log(`${passed} passed, ${failed} failed`);
   return code === 0 && failed === 0 ? 0 : 1;
+}
+
+/**
+ * `npm run redis`: a private redis-server for distributed mode, data in LOTWISE_REDIS_DIR (default .tmp/redis), on
+ * LOTWISE_REDIS_PORT (default 6390), bound to loopback plus the addresses in LOTWISE_REDIS_BIND (space-separated) for
+ * worker hosts elsewhere. Runs until Ctrl-C.
+ */
+async function runRedis(): Promise<number> {
+  const port = Number(process.env.LOTWISE_REDIS_PORT ?? 6390);
+  const dir = process.env.LOTWISE_REDIS_DIR ?? ".tmp/redis";
+  const extraBind = (process.env.LOTWISE_REDIS_BIND ?? "").split(/\s+/).filter(Boolean);
+  const redis = await startRedis({ dir, port, extraBind });
+  cleanups.push(() => redis.stop());
+  console.log(`lotwise: Redis on ${["127.0.0.1", ...extraBind].join(", ")} port ${port} (data in ${dir}, append-only file)`);
+  console.log(`  server:  LOTWISE_REDIS_URL=${redis.url} npm start`);
+  console.log(`  workers: LOTWISE_REDIS_URL=redis://<this host>:${port}/ npm run worker   (Ctrl-C stops Redis)`);
+  return new Promise(() => undefined);
 }
 
 async function startDb(dir: string, port: number): Promise<MariaDb> {

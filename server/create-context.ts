@@ -3,7 +3,7 @@ import { createSignInLimiter } from "./auth/sign-in-limiter";
 import type { ServerConfig } from "./config/env";
 import type { AppContext } from "./context";
 import { createDataSource, openAndMigrate } from "./db/data-source";
-import { createTrialPool } from "./engine/trial-pool";
+import { createDispatcher } from "./engine/dispatcher";
 import { createLogger, type Logger } from "./logger";
 import { createMailer } from "./mail/mailer";
 import { createRunQueue } from "./services/run-queue";
@@ -29,8 +29,9 @@ export async function createContext(config: ServerConfig, options: { log?: Logge
   if (ran > 0) log.info("migrations_applied", { count: ran });
   const sessions = createSessionService(config.db, { secure: config.env === "production" });
   const mailer = createMailer(config);
-  const pool = createTrialPool({ size: config.workers });
-  const runQueue = createRunQueue({ dataSource, mailer, log, config, pool, maxRunning });
+  const dispatcher = createDispatcher(config, log);
+  if (dispatcher.mode === "distributed") log.info("run_dispatch_distributed", { redis: config.redisUrl?.replace(/\/\/([^@/]*)@/, "//***@") });
+  const runQueue = createRunQueue({ dataSource, mailer, log, config, dispatcher, maxRunning });
   const ctx: AppContext = { config, dataSource, sessions, mailer, limiter: createSignInLimiter(), log, runQueue };
   await runQueue.start();
   return {

@@ -21,6 +21,10 @@ const envSchema = z.object({
   LOTWISE_MAIL_SINK_PORT: port.default(2525),
   LOTWISE_MAIL_FROM: z.string().default("Lotwise <lotwise@localhost>"),
   LOTWISE_WORKERS: z.coerce.number().int().min(1).max(64).optional(),
+  LOTWISE_REDIS_URL: z.string().trim().optional().transform((v) => (v ? v : undefined)).superRefine((v, c) => {
+    const problem = v === undefined ? null : redisUrlProblem(v);
+    if (problem) c.addIssue({ code: "custom", message: problem });
+  }),
   LOTWISE_CLIENT_DIR: z.string().default("dist/client"),
   LOTWISE_LOG_LEVEL: z.enum(["info", "warn", "error", "silent"]).optional(),
 });
@@ -35,6 +39,8 @@ export type ServerConfig = {
   smtp: { host?: string; port?: number; user?: string; password?: string; secure: boolean; sinkPort: number };
   mailFrom: string;
   workers?: number;
+  /** distributed mode (BullMQ on Redis) when set; embedded otherwise */
+  redisUrl?: string;
   clientDir: string;
 };
 
@@ -65,6 +71,23 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): ServerConfig {
     },
     mailFrom: e.LOTWISE_MAIL_FROM,
     workers: e.LOTWISE_WORKERS,
+    redisUrl: e.LOTWISE_REDIS_URL,
     clientDir: e.LOTWISE_CLIENT_DIR,
   };
+}
+
+/**
+ * Checks a Redis URL (redis:// or rediss://, host required).
+ * @returns the message when it is not one, else null
+ */
+export function redisUrlProblem(raw: string): string | null {
+  let u: URL;
+  try {
+    u = new URL(raw);
+  } catch {
+    return "must be a URL such as redis://127.0.0.1:6390/";
+  }
+  if (u.protocol !== "redis:" && u.protocol !== "rediss:") return "must start with redis:// or rediss://";
+  if (!u.hostname) return "must name a host";
+  return null;
 }

@@ -27,9 +27,12 @@ import type { TrialsWorkerResult } from "../../workers/trials.worker";
  * EngineError). The run fails with code WORKER_FAILED and this message; piscina replaces the thread.
  */
 export class WorkerFailure extends Error {
-  constructor(message: string, options?: { cause?: unknown }) {
+  /** the run's failure code: WORKER_FAILED, or in distributed mode QUEUE_UNAVAILABLE / NO_WORKERS */
+  readonly code: "WORKER_FAILED" | "QUEUE_UNAVAILABLE" | "NO_WORKERS";
+  constructor(message: string, options?: { cause?: unknown; code?: WorkerFailure["code"] }) {
     super(message, options);
     this.name = "WorkerFailure";
+    this.code = options?.code ?? "WORKER_FAILED";
   }
 }
 
@@ -57,6 +60,8 @@ export interface TrialPool {
   runMonteCarlo(netlist: Netlist, limits: unknown, options: RunOptions, controls?: RunControls): Promise<RunResult>;
   /** Runs one chunk task on a worker as given (validated there) and returns its aggregate. */
   runChunk(task: ChunkTask, signal?: AbortSignal): Promise<TrialAggregate>;
+  /** As runChunk, with the aggregate left packed (encodeAggregate). */
+  runChunkPacked(task: ChunkTask, signal?: AbortSignal): Promise<Uint8Array>;
   close(): Promise<void>;
 }
 
@@ -98,6 +103,19 @@ export function createTrialPool(options: TrialPoolOptions = {}): TrialPool {
     throw deserializeEngineError(out.error);
   }
 
+  /** One chunk task as given, its aggregate still packed (encodeAggregate): what a worker process sends on. */
+  async function runChunkPacked(task: ChunkTask, signal?: AbortSignal): Promise<Uint8Array> {
+    let out: TrialsWorkerResult;
+    try {
+      out = await piscina.run(task, { signal });
+    } catch (err) {
+      if (signal?.aborted || (err as Error)?.name === "AbortError") throw new EngineError("CANCELLED", "run cancelled");
+      throw new WorkerFailure(`A worker thread failed on trials ${task?.start}..${task?.start + task?.count - 1}: ${err instanceof Error ? err.message : String(err)}`, { cause: err });
+    }
+    if (out instanceof Uint8Array) return out;
+    throw deserializeEngineError(out.error);
+  }
+
   return {
     size,
     async runMonteCarlo(netlist, limits, runOptions, controls = {}) {
@@ -127,6 +145,7 @@ export function createTrialPool(options: TrialPoolOptions = {}): TrialPool {
       }
     },
     runChunk: (task, signal) => runChunk(task, { start: task.start, count: task.count }, signal),
+    runChunkPacked,
     close: () => piscina.destroy(),
   };
 }

@@ -1,5 +1,6 @@
 /**
- * The run queue: executes stored `queued` runs on the server's trial pool.
+ * The run queue: executes stored `queued` runs through the run dispatcher (the server's trial pool, or chunk
+ * jobs for worker processes in distributed mode: server/engine/dispatcher.ts).
  *
  * - At most `maxRunning` runs execute at once, oldest `queuedAt` first. A run is claimed with a
  *   conditional UPDATE (queued → running), so two queues on one database never run it twice.
@@ -22,7 +23,8 @@
  */
 import type { DataSource } from "typeorm";
 import type { ServerConfig } from "../config/env";
-import { WorkerFailure, type TrialPool } from "../engine/trial-pool";
+import type { RunDispatcher } from "../engine/dispatcher";
+import { WorkerFailure } from "../engine/trial-pool";
 import { Design, DesignRevision, Run, RunResultRow, User } from "../entities";
 import type { RunState } from "../entities/run.entity";
 import type { Logger } from "../logger";
@@ -52,8 +54,8 @@ export interface RunQueue {
   idle(): Promise<void>;
   /** Stops taking runs, puts the running ones back to `queued` and closes the pool. */
   close(): Promise<void>;
-  /** The trial pool (created now if it was given as a maker). */
-  readonly pool: TrialPool;
+  /** The dispatcher (created now if it was given as a maker). */
+  readonly dispatcher: RunDispatcher;
   readonly maxRunning: number;
 }
 
@@ -62,8 +64,8 @@ export interface RunQueueDeps {
   mailer: Mailer;
   log: Logger;
   config: Pick<ServerConfig, "publicOrigin">;
-  /** the pool, or a maker called on the first run (tests that never run anything start no thread) */
-  pool: TrialPool | (() => TrialPool);
+  /** where trials are computed (embedded pool or distributed), or a maker called on the first run (tests that never run anything start no thread) */
+  dispatcher: RunDispatcher | (() => RunDispatcher);
   /** default 1 */
   maxRunning?: number;
   /** default 500 ms */
@@ -103,8 +105,8 @@ export function jsonSafe(value: unknown): unknown {
 
 export function createRunQueue(deps: RunQueueDeps): RunQueue {
   const { dataSource, log } = deps;
-  let created: TrialPool | null = typeof deps.pool === "function" ? null : deps.pool;
-  const getPool = (): TrialPool => (created ??= (deps.pool as () => TrialPool)());
+  let created: RunDispatcher | null = typeof deps.dispatcher === "function" ? null : deps.dispatcher;
+  const getDispatcher = (): RunDispatcher => (created ??= (deps.dispatcher as () => RunDispatcher)());
   const maxRunning = deps.maxRunning ?? 1;
   if (!Number.isInteger(maxRunning) || maxRunning < 1) throw new Error("maxRunning must be an integer ≥ 1");
   const interval = deps.progressIntervalMs ?? 500;
@@ -251,7 +253,7 @@ export function createRunQueue(deps: RunQueueDeps): RunQueue {
     let result: RunResult | null = null;
     let failure: unknown = null;
     try {
-      result = await getPool().runMonteCarlo(run.netlist, run.limits, run.options as unknown as RunOptions, { signal: a.controller.signal, onProgress });
+      result = await getDispatcher().runMonteCarlo(run.netlist, run.limits, run.options as unknown as RunOptions, { signal: a.controller.signal, onProgress, runId: run.id });
     } catch (err) {
       failure = err;
     }
@@ -280,7 +282,7 @@ export function createRunQueue(deps: RunQueueDeps): RunQueue {
       await persist(run.id, "cancelled", () => runs().update({ id: run.id, state: "running" }, { state: "cancelled", finishedAt: new Date() }));
     } else {
       final = "failed";
-      const code = err instanceof EngineError ? err.code : err instanceof WorkerFailure ? "WORKER_FAILED" : "INTERNAL";
+      const code = err instanceof EngineError ? err.code : err instanceof WorkerFailure ? err.code : "INTERNAL";
       const message = err instanceof Error ? err.message : String(err);
       if (!(err instanceof EngineError)) log.error("run_failed", { runId: run.id, code, message, stack: (err as Error)?.stack });
       const res = await persist(run.id, "failed", () =>
@@ -333,8 +335,8 @@ export function createRunQueue(deps: RunQueueDeps): RunQueue {
   }
 
   return {
-    get pool() {
-      return getPool();
+    get dispatcher() {
+      return getDispatcher();
     },
     maxRunning,
     async start() {

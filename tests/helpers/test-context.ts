@@ -10,7 +10,7 @@ import { createSignInLimiter } from "../../server/auth/sign-in-limiter";
 import { loadConfig, type ServerConfig } from "../../server/config/env";
 import type { AppContext } from "../../server/context";
 import { createDataSource, openAndMigrate } from "../../server/db/data-source";
-import { createTrialPool } from "../../server/engine/trial-pool";
+import { createEmbeddedDispatcher, type RunDispatcher } from "../../server/engine/dispatcher";
 import { OutboxMessage, User } from "../../server/entities";
 import { createLogger } from "../../server/logger";
 import { startMailSink } from "../../server/mail/mail-sink";
@@ -43,7 +43,9 @@ let counter = 0;
  * port storing into it, and the real Express app over it. Needs the test MariaDB that `npm test` starts.
  */
 export async function createTestContext(
-  options: { limiter?: Parameters<typeof createSignInLimiter>[0]; /** runs at once (default 1) */ maxRunning?: number; /** trial pool threads (default 1) */ poolSize?: number } = {},
+  options: { limiter?: Parameters<typeof createSignInLimiter>[0]; /** runs at once (default 1) */ maxRunning?: number; /** trial pool threads (default 1) */ poolSize?: number;
+    /** where runs are computed (default: an embedded pool of `poolSize` threads, started on the first run) */ dispatcher?: () => RunDispatcher;
+  } = {},
 ): Promise<TestContext> {
   if (!process.env.LOTWISE_TEST_DB_READY) throw new Error("The integration tests need the test MariaDB: run them through `npm test`.");
   const base = loadConfig(process.env);
@@ -60,8 +62,8 @@ export async function createTestContext(
   const sessions = createSessionService(config.db, { secure: false });
   const mailer = createMailer(config);
   const log = createLogger("silent");
-  // A small pool (one thread unless asked; started on the first run) and a queue that starts at once, so a POSTed run completes.
-  const runQueue = createRunQueue({ dataSource, mailer, log, config, pool: () => createTrialPool({ size: options.poolSize ?? 1 }), maxRunning: options.maxRunning ?? 1 });
+  // A small pool (one thread unless asked; started on the first run) or the given dispatcher, and a queue that starts at once, so a POSTed run completes.
+  const runQueue = createRunQueue({ dataSource, mailer, log, config, dispatcher: options.dispatcher ?? (() => createEmbeddedDispatcher({ size: options.poolSize ?? 1 })), maxRunning: options.maxRunning ?? 1 });
   const ctx: AppContext = { config, dataSource, sessions, mailer, limiter: createSignInLimiter(options.limiter), log, runQueue };
   await runQueue.start();
   const { app, routes } = createApp(ctx);

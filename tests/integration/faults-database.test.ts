@@ -8,6 +8,7 @@ import { hashPassword } from "../../server/auth/passwords";
 import { loadConfig, type ServerConfig } from "../../server/config/env";
 import type { AppContext } from "../../server/context";
 import { createContext } from "../../server/create-context";
+import { createEmbeddedDispatcher } from "../../server/engine/dispatcher";
 import { createTrialPool } from "../../server/engine/trial-pool";
 import { Run, RunResultRow, User } from "../../server/entities";
 import type { Logger } from "../../server/logger";
@@ -158,7 +159,7 @@ describe("database outage", () => {
       ...template, id, state: "queued", trialsDone: 0, passed: null, yieldFraction: null, wilsonLow: null, wilsonHigh: null,
       queuedAt: new Date(), startedAt: null, finishedAt: null, label: "left queued",
     }));
-    const queue = createRunQueue({ dataSource: ctx.dataSource, mailer: ctx.mailer, log, config: ctx.config, pool: () => createTrialPool({ size: 1 }), retryMs: 100 });
+    const queue = createRunQueue({ dataSource: ctx.dataSource, mailer: ctx.mailer, log, config: ctx.config, dispatcher: () => createEmbeddedDispatcher({ size: 1 }), retryMs: 100 });
     try {
       await db.stop();
       const before = logged.filter((l) => l.event === "run_queue_pump_failed").length;

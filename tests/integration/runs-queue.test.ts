@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { Run, RunResultRow, type User } from "../../server/entities";
-import { createTrialPool } from "../../server/engine/trial-pool";
+import { createEmbeddedDispatcher } from "../../server/engine/dispatcher";
 import { createRunQueue } from "../../server/services/run-queue";
 import type { Netlist } from "../../shared/engine/netlist";
 import { createTestContext, ORIGIN, type TestContext } from "../helpers/test-context";
@@ -131,7 +131,7 @@ describe("run queue", () => {
     // Simulate a crash mid-run: the row says running, half done, no result.
     await t.ctx.dataSource.getRepository(RunResultRow).delete({ runId: id });
     await repo.update({ id }, { state: "running", trialsDone: 1000, passed: null, yieldFraction: null, wilsonLow: null, wilsonHigh: null, finishedAt: null });
-    const queue = createRunQueue({ dataSource: t.ctx.dataSource, mailer: t.ctx.mailer, log: t.ctx.log, config: t.ctx.config, pool: createTrialPool({ size: 1 }) });
+    const queue = createRunQueue({ dataSource: t.ctx.dataSource, mailer: t.ctx.mailer, log: t.ctx.log, config: t.ctx.config, dispatcher: createEmbeddedDispatcher({ size: 1 }) });
     try {
       await queue.start();
       await queue.idle();

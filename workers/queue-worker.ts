@@ -1,0 +1,97 @@
+/**
+ * A Lotwise worker process for distributed mode: `npm run worker` on any host that reaches the Redis the server
+ * uses. It takes chunk jobs (server/engine/chunk-jobs.ts) from BullMQ, runs each on its own piscina pool (the same
+ * workers/trials.worker.ts threads the embedded mode uses) and returns the chunk's packed aggregate. It needs no
+ * database, no mail and no inbound port: only Redis.
+ *
+ * Settings (environment):
+ *   LOTWISE_REDIS_URL       required, e.g. redis://10.0.0.5:6390/ (the server's value)
+ *   LOTWISE_WORKER_THREADS  trial threads, and so chunks at once (default: the host's cores)
+ *   LOTWISE_WORKER_NAME     how this process shows in job records (default: <hostname>-<pid>)
+ *   LOTWISE_CHUNK_LOCK_MS   lock time of a running chunk, renewed every half of it (default 10000). A process
+ *                           that dies stops renewing; after this long, plus at most LOTWISE_STALLED_CHECK_MS
+ *                           (default 5000), another worker's stalled-job check puts the chunk back and it is
+ *                           run again. Every worker of one queue should use the same values.
+ * SIGTERM or SIGINT: stops taking chunks, finishes the running ones, exits 0.
+ */
+import os from "node:os";
+import { Worker } from "bullmq";
+import { CHUNK_QUEUE, CHUNK_QUEUE_PREFIX, packAggregate, redisConnection, type ChunkJobData, type ChunkJobResult } from "../server/engine/chunk-jobs";
+import { createTrialPool } from "../server/engine/trial-pool";
+import { redisUrlProblem } from "../server/config/env";
+import { createLogger } from "../server/logger";
+import { isEngineError } from "../shared/engine/errors";
+import { serializeEngineError } from "../shared/engine/task-errors";
+
+const log = createLogger();
+
+function setting(name: string, fallback: number, min: number, max: number): number {
+  const raw = process.env[name];
+  if (raw === undefined || raw.trim() === "") return fallback;
+  const n = Number(raw);
+  if (!Number.isInteger(n) || n < min || n > max) fail(`${name}: must be an integer ${min}..${max} (got "${raw}")`);
+  return n;
+}
+
+function fail(message: string): never {
+  process.stderr.write(`lotwise worker: ${message}\n`);
+  process.exit(2);
+}
+
+const redisUrl = process.env.LOTWISE_REDIS_URL?.trim();
+if (!redisUrl) fail("LOTWISE_REDIS_URL is not set: give the Redis URL the server uses, e.g. LOTWISE_REDIS_URL=redis://127.0.0.1:6390/ npm run worker");
+const problem = redisUrlProblem(redisUrl);
+if (problem) fail(`LOTWISE_REDIS_URL: ${problem}`);
+const threads = setting("LOTWISE_WORKER_THREADS", os.availableParallelism(), 1, 256);
+const lockDuration = setting("LOTWISE_CHUNK_LOCK_MS", 10_000, 500, 600_000);
+const stalledInterval = setting("LOTWISE_STALLED_CHECK_MS", 5_000, 200, 600_000);
+const name = process.env.LOTWISE_WORKER_NAME?.trim() || `${os.hostname()}-${process.pid}`;
+
+const pool = createTrialPool({ size: threads, log });
+let chunksDone = 0;
+
+const worker = new Worker<ChunkJobData, ChunkJobResult>(
+  CHUNK_QUEUE,
+  async (job) => {
+    try {
+      const packed = packAggregate(await pool.runChunkPacked(job.data.task));
+      chunksDone++;
+      return packed;
+    } catch (err) {
+      // Bad input fails the same way on every try: return it (no retry). A dead thread is thrown: BullMQ retries.
+      if (isEngineError(err) && err.code !== "CANCELLED") return { error: serializeEngineError(err) };
+      throw err;
+    }
+  },
+  {
+    connection: redisConnection(redisUrl, "worker"),
+    prefix: CHUNK_QUEUE_PREFIX,
+    name,
+    concurrency: threads,
+    lockDuration,
+    stalledInterval,
+    maxStalledCount: 2,
+  },
+);
+
+let lastErrorLog = 0;
+worker.on("error", (err) => {
+  if (Date.now() - lastErrorLog < 10_000) return;
+  lastErrorLog = Date.now();
+  log.warn("worker_redis_error", { worker: name, message: String(err?.message ?? err).slice(0, 200) });
+});
+worker.on("failed", (job, err) => log.warn("chunk_failed", { worker: name, jobId: job?.id, attempt: job?.attemptsMade, message: err.message.slice(0, 300) }));
+worker.on("stalled", (jobId) => log.warn("chunk_stalled_requeued", { worker: name, jobId }));
+worker.on("ready", () => log.info("worker_ready", { worker: name, threads, redis: redisUrl.replace(/\/\/([^@/]*)@/, "//***@"), lockDuration, stalledInterval }));
+
+let stopping = false;
+async function stop(signal: string): Promise<void> {
+  if (stopping) return;
+  stopping = true;
+  log.info("worker_stopping", { worker: name, signal, chunksDone });
+  await worker.close();
+  await pool.close();
+  process.exit(0);
+}
+process.on("SIGTERM", () => void stop("SIGTERM"));
+process.on("SIGINT", () => void stop("SIGINT"));
