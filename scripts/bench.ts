@@ -8,9 +8,16 @@
  *     - the plain dense complex Gaussian-elimination baseline tests/oracles/dense-solver.ts (fewer trials, as a rate);
  *     on a 7th-order Butterworth low-pass ladder (10,000 trials × 201 points) and a 5th-order band-pass;
  *  2. peak memory (RSS of the process, which includes the worker threads, and the main heap; sampled
- *     every 20 ms) of a 1,000,000-trial run against a 100,000-trial run, to show it is flat in the trial count.
- * Kept under ~5 minutes on 2 cores: the memory runs use a coarser grid (printed).
+ *     every 20 ms) of a 1,000,000-trial run against a 100,000-trial run, to show it is flat in the trial count;
+ *  3. distributed mode: one 30,000-trial run of the low-pass through BullMQ on a private redis-server
+ *     (scripts/redis.ts, data in .tmp/redis-bench, a free port) with 1, 2 and 3 worker processes
+ *     (workers/queue-worker.ts, 1 trial thread each), as ratios to 1 process, against the embedded 1-thread pool
+ *     (the queue's overhead), and whether all results are byte-identical (toStoredResult). On a 2-core machine
+ *     this shows overhead and scaling up to the core count only, not what more hosts would give.
+ * Kept under ~6 minutes on 2 cores: the memory runs use a coarser grid (printed).
+ * LOTWISE_BENCH_ONLY=distributed runs section 3 alone (a quick check of distributed mode).
  */
+import { rmSync } from "node:fs";
 import os from "node:os";
 import { performance } from "node:perf_hooks";
 import type { Netlist } from "../shared/engine/netlist";
@@ -19,6 +26,12 @@ import { buildFrequencyGrid } from "../shared/engine/frequency-grid";
 import { synthesizeLadder } from "../shared/engine/synthesis/index";
 import { createTrialPool } from "../server/engine/trial-pool";
 import { denseSweep } from "../tests/oracles/dense-solver";
+import { startRedis, type RedisServer } from "./redis";
+import { createDistributedDispatcher, type DistributedDispatcher } from "../server/engine/distributed-dispatcher";
+import { toStoredResult } from "../server/services/run-queue";
+import { createLogger } from "../server/logger";
+import type { RunResult } from "../shared/engine/result";
+import { freePort, startWorker, type WorkerProcess } from "../tests/helpers/distributed";
 
 interface System {
   name: string;
@@ -47,6 +60,8 @@ const systems: System[] = [
 const fmtRate = (x: number) => `${(x / 1e6).toFixed(2)} M/s`;
 const mb = (x: number) => `${(x / 2 ** 20).toFixed(0)} MB`;
 
+const onlyDistributed = process.env.LOTWISE_BENCH_ONLY === "distributed";
+
 async function main(): Promise<void> {
   const t0 = performance.now();
   const load = os.loadavg().map((x) => x.toFixed(1)).join(" / ");
@@ -59,11 +74,14 @@ async function main(): Promise<void> {
     // Warm up every thread of both pools on both systems (thread start, tsx transform, JIT): with one
     // warm-up chunk only one thread of the 2-worker pool would be warm, and its partner would start the
     // timed run cold, which showed up as poor 2-worker scaling. Small chunks so every thread gets some.
-    for (const sys of systems) {
-      await Promise.all([pool1, pool2].map((p) => p.runMonteCarlo(sys.netlist, sys.limits, { trials: 800, seed: 0, sweep: sys.sweep }, { chunkSize: 100 })));
+    if (!onlyDistributed) {
+      for (const sys of systems) {
+        await Promise.all([pool1, pool2].map((p) => p.runMonteCarlo(sys.netlist, sys.limits, { trials: 800, seed: 0, sweep: sys.sweep }, { chunkSize: 100 })));
+      }
+      for (const sys of systems) await benchSystem(sys, pool1, pool2);
+      await benchMemory(pool2);
     }
-    for (const sys of systems) await benchSystem(sys, pool1, pool2);
-    await benchMemory(pool2);
+    await benchDistributed(pool1);
   } finally {
     await Promise.all([pool1.close(), pool2.close()]);
   }
@@ -138,6 +156,72 @@ async function benchMemory(pool: ReturnType<typeof createTrialPool>): Promise<vo
     sample();
     const secs = (performance.now() - t) / 1000;
     console.log(`  ${String(trials).padStart(9)} trials: peak RSS ${mb(rss).padStart(7)}, peak main heap ${mb(heap).padStart(7)}, ${secs.toFixed(1)} s (${fmtRate((trials * res.envelopes.freqs.length) / secs)}), yield ${(100 * res.yield).toFixed(3)} %`);
+  }
+}
+
+/**
+ * Distributed mode on this machine: the same run through BullMQ with 1, 2 and 3 worker processes (1 trial thread
+ * each, started one by one between the measurements), and on the embedded 1-thread pool for reference.
+ * Every worker is warmed (thread start, tsx transform, JIT) before it is timed. Redis and the workers are stopped
+ * at the end, also on an error; the data folder is removed before and after.
+ */
+async function benchDistributed(pool1: ReturnType<typeof createTrialPool>): Promise<void> {
+  const sys = systems[0];
+  const trials = 30_000;
+  const chunkSize = 2500; // 12 chunks: an even share for 1, 2 and 3 processes
+  const options = { trials, seed: 3, sweep: sys.sweep };
+  const dir = ".tmp/redis-bench";
+  rmSync(dir, { recursive: true, force: true });
+  let redis: RedisServer | null = null;
+  let dispatcher: DistributedDispatcher | null = null;
+  const workers: WorkerProcess[] = [];
+  try {
+    redis = await startRedis({ dir, port: await freePort() });
+    dispatcher = createDistributedDispatcher({ redisUrl: redis.url, pollMs: 100, log: createLogger("warn") });
+    const d = dispatcher;
+    const url = redis.url;
+    const timed = async (run: () => Promise<RunResult>) => {
+      const t = performance.now();
+      const res = await run();
+      return { secs: (performance.now() - t) / 1000, res };
+    };
+    /** Starts one more worker process and warms it: small runs until it has done 2 chunks (at most 4 tries). */
+    const addWorker = async () => {
+      // Default lock settings (the test helper's short ones are for fault tests); its output is kept, not printed.
+      const w = await startWorker(url, `bench-${workers.length + 1}`, { threads: 1, env: { LOTWISE_CHUNK_LOCK_MS: "10000", LOTWISE_STALLED_CHECK_MS: "5000" } });
+      workers.push(w);
+      for (let k = 0; k < 4 && w.chunksDone().length < 2; k++) {
+        await d.runMonteCarlo(sys.netlist, sys.limits, { trials: 2000, seed: 100 + k, sweep: sys.sweep }, { chunkSize: 250 });
+      }
+    };
+
+    await pool1.runMonteCarlo(sys.netlist, sys.limits, { trials: 2000, seed: 100, sweep: sys.sweep }, { chunkSize: 250 });
+    const embedded = await timed(() => pool1.runMonteCarlo(sys.netlist, sys.limits, options, { chunkSize }));
+    const rows: { processes: number; secs: number; res: RunResult }[] = [];
+    for (let n = 1; n <= 3; n++) {
+      await addWorker();
+      rows.push({ processes: n, ...(await timed(() => d.runMonteCarlo(sys.netlist, sys.limits, options, { chunkSize }))) });
+    }
+
+    const points = trials * embedded.res.envelopes.freqs.length;
+    const rate = (secs: number) => `${(points / secs / 1e6).toFixed(2)} M point-solves/s`;
+    const stored = (r: RunResult) => JSON.stringify(toStoredResult(r));
+    const reference = stored(embedded.res);
+    const same = rows.every((r) => stored(r.res) === reference);
+    console.log(`\nDistributed mode (BullMQ on a local redis-server, worker processes with 1 thread each), ${sys.name}, ${trials.toLocaleString("en-US")} trials × ${embedded.res.envelopes.freqs.length} points, chunks of ${chunkSize}:`);
+    for (const r of rows) {
+      console.log(`  ${r.processes} worker process${r.processes > 1 ? "es" : "  "}  ${r.secs.toFixed(2).padStart(6)} s  ${rate(r.secs).padStart(24)}  ${(rows[0].secs / r.secs).toFixed(2)}× 1 process`);
+    }
+    console.log(`  embedded pool, 1 thread ${embedded.secs.toFixed(2).padStart(6)} s  ${rate(embedded.secs).padStart(24)}  1 process / embedded ${(embedded.secs / rows[0].secs).toFixed(2)}× (the queue's overhead: ${(100 * (rows[0].secs / embedded.secs - 1)).toFixed(0)} % more time)`);
+    console.log(`  same result (stored JSON) with 1, 2, 3 processes and embedded: ${same ? "yes" : "NO"}; yield ${(100 * embedded.res.yield).toFixed(2)} %`);
+    const cores = os.availableParallelism();
+    console.log(`  Note: this machine has ${cores} core${cores === 1 ? "" : "s"}, shared by this process (dispatcher and merging), Redis and the workers, so more than ${cores} worker process${cores === 1 ? "" : "es"} cannot run faster here;`);
+    console.log("  the ratios show the queue's overhead and scaling up to the core count, not what worker processes on more hosts would give.");
+  } finally {
+    await Promise.allSettled(workers.map((w) => w.stop()));
+    await dispatcher?.close().catch(() => undefined);
+    await redis?.stop().catch(() => undefined);
+    rmSync(dir, { recursive: true, force: true });
   }
 }
 

@@ -54,8 +54,10 @@ const worker = new Worker<ChunkJobData, ChunkJobResult>(
   CHUNK_QUEUE,
   async (job) => {
     try {
+      const started = Date.now();
       const packed = packAggregate(await pool.runChunkPacked(job.data.task));
       chunksDone++;
+      log.info("chunk_done", { worker: name, jobId: job.id, trials: job.data.task.count, ms: Date.now() - started, bytes: packed.aggregate.length });
       return packed;
     } catch (err) {
       // Bad input fails the same way on every try: return it (no retry). A dead thread is thrown: BullMQ retries.

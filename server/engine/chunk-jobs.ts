@@ -40,7 +40,7 @@ export function chunkJobId(runId: string, chunk: { start: number; count: number 
 }
 
 /** Packs an encoded aggregate for Redis. */
-export function packAggregate(bytes: Uint8Array): ChunkJobResult {
+export function packAggregate(bytes: Uint8Array): { aggregate: string } {
   return { aggregate: deflateRawSync(bytes).toString("base64") };
 }
 

@@ -179,9 +179,9 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
           if (poked.size > 0 || signal.aborted) done();
         });
       }
-      void removeBatch(parentId, [], 0);
+      cleanUp(parentId, ids);
     } catch (err) {
-      void removeBatch(parentId, [...open], 0);
+      cleanUp(parentId, ids);
       throw err;
     } finally {
       signal.removeEventListener("abort", onAbort);
@@ -190,17 +190,29 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
     }
   }
 
+  const removals = new Set<Promise<void>>();
+  function cleanUp(parentId: string, ids: string[]): void {
+    const p = removeBatch(parentId, ids, 0).finally(() => removals.delete(p));
+    removals.add(p);
+  }
+
   /**
-   * Removes a batch (the parent and its chunks) once nothing of it is running: first the chunks still waiting,
-   * then the parent; a chunk still running blocks that, so it is tried again a few times, 2 s apart.
+   * Removes a batch from Redis once nothing of it is running: its chunks, then the parent. A chunk still running
+   * (after a cancel or a failure) cannot be removed yet, so what is left is tried again up to 5 times, 2 s apart;
+   * anything still left then is a finished job that BullMQ drops after a day.
    */
-  async function removeBatch(parentId: string, waiting: string[], attempt: number): Promise<void> {
+  async function removeBatch(parentId: string, ids: string[], attempt: number): Promise<void> {
+    const left: string[] = [];
     try {
-      for (const id of waiting) await (await chunks.getJob(id))?.remove().catch(() => undefined);
+      for (const id of ids) {
+        const ok = await chunks.getJob(id).then((j) => j?.remove()).then(() => true, () => false);
+        if (!ok) left.push(id);
+      }
       await (await batches.getJob(parentId))?.remove();
     } catch {
-      if (attempt < 5 && !closed) setTimeout(() => void removeBatch(parentId, [], attempt + 1), 2000).unref();
+      left.push("");
     }
+    if (left.length > 0 && attempt < 5 && !closed) setTimeout(() => void removeBatch(parentId, left.filter(Boolean), attempt + 1), 2000).unref();
   }
 
   return {
@@ -239,6 +251,8 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
     async close() {
       closed = true;
       for (const w of [...wakers]) w();
+      // Let the removal of finished batches end (bounded: Redis may be away).
+      await Promise.race([Promise.allSettled([...removals]), new Promise((r) => setTimeout(r, 3000).unref())]);
       await Promise.allSettled([events.close(), flows.close(), batches.close(), chunks.close()]);
     },
   };

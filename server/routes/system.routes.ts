@@ -10,11 +10,14 @@ export function systemRoutes(ctx: AppContext): ApiRouter {
   api.get("/health", {
     access: "public",
     handler: async ({ res }) => {
-      const up = await Promise.race([
-        ctx.dataSource.query("SELECT 1").then(() => true, () => false),
-        new Promise<boolean>((resolve) => setTimeout(() => resolve(false), 2000).unref()),
+      const timeout = <T>(value: T) => new Promise<T>((resolve) => setTimeout(() => resolve(value), 2000).unref());
+      const [up, dispatch] = await Promise.all([
+        Promise.race([ctx.dataSource.query("SELECT 1").then(() => true, () => false), timeout(false)]),
+        // Where runs are computed; absent until the first run started the dispatcher (embedded pool or Redis).
+        Promise.race([ctx.runQueue.dispatchStatus(), timeout({ mode: "distributed", redis: "down", workers: null, waitingChunks: null, activeChunks: null } as const)]),
       ]);
-      res.status(up ? 200 : 503).json({ status: up ? "ok" : "degraded", database: up ? "up" : "down" });
+      const ok = up && !(dispatch?.mode === "distributed" && dispatch.redis === "down");
+      res.status(ok ? 200 : 503).json({ status: ok ? "ok" : "degraded", database: up ? "up" : "down", ...(dispatch ? { dispatch } : {}) });
     },
   });
 

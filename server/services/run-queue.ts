@@ -23,7 +23,7 @@
  */
 import type { DataSource } from "typeorm";
 import type { ServerConfig } from "../config/env";
-import type { RunDispatcher } from "../engine/dispatcher";
+import type { DispatchStatus, RunDispatcher } from "../engine/dispatcher";
 import { WorkerFailure } from "../engine/trial-pool";
 import { Design, DesignRevision, Run, RunResultRow, User } from "../entities";
 import type { RunState } from "../entities/run.entity";
@@ -56,6 +56,8 @@ export interface RunQueue {
   close(): Promise<void>;
   /** The dispatcher (created now if it was given as a maker). */
   readonly dispatcher: RunDispatcher;
+  /** The dispatcher's status, or null while it has not been created (no run yet). */
+  dispatchStatus(): Promise<DispatchStatus | null>;
   readonly maxRunning: number;
 }
 
@@ -338,6 +340,7 @@ export function createRunQueue(deps: RunQueueDeps): RunQueue {
     get dispatcher() {
       return getDispatcher();
     },
+    dispatchStatus: async () => (created ? created.status() : null),
     maxRunning,
     async start() {
       await runs().update({ state: "running" }, { state: "queued", startedAt: null, trialsDone: 0 });
