@@ -198,8 +198,8 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
 
   /**
    * Removes a batch from Redis once nothing of it is running: its chunks, then the parent. A chunk still running
-   * (after a cancel or a failure) cannot be removed yet, so what is left is tried again up to 5 times, 2 s apart;
-   * anything still left then is a finished job that BullMQ drops after a day.
+   * (after a cancel or a failure), or Redis may be away, so what is left is tried again up to 10 times, 2 s apart
+   * doubling to 1 min (about 6 min in all); a finished job still left then is dropped by BullMQ after a day.
    */
   async function removeBatch(parentId: string, ids: string[], attempt: number): Promise<void> {
     const left: string[] = [];
@@ -212,7 +212,7 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
     } catch {
       left.push("");
     }
-    if (left.length > 0 && attempt < 5 && !closed) setTimeout(() => void removeBatch(parentId, left.filter(Boolean), attempt + 1), 2000).unref();
+    if (left.length > 0 && attempt < 10 && !closed) setTimeout(() => void removeBatch(parentId, left.filter(Boolean), attempt + 1), Math.min(2000 * 2 ** attempt, 60_000)).unref();
   }
 
   return {
