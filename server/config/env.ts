@@ -25,6 +25,8 @@ const envSchema = z.object({
     const problem = v === undefined ? null : redisUrlProblem(v);
     if (problem) c.addIssue({ code: "custom", message: problem });
   }),
+  LOTWISE_REDIS_OUTAGE_S: z.coerce.number().int().min(1).max(86_400).default(60),
+  LOTWISE_NO_WORKERS_S: z.coerce.number().int().min(1).max(86_400).default(600),
   LOTWISE_CLIENT_DIR: z.string().default("dist/client"),
   LOTWISE_LOG_LEVEL: z.enum(["info", "warn", "error", "silent"]).optional(),
 });
@@ -41,6 +43,10 @@ export type ServerConfig = {
   workers?: number;
   /** distributed mode (BullMQ on Redis) when set; embedded otherwise */
   redisUrl?: string;
+  /** distributed mode: a run fails with QUEUE_UNAVAILABLE after Redis was unreachable this long */
+  redisOutageSeconds: number;
+  /** distributed mode: a run fails with NO_WORKERS after no worker process was connected this long */
+  noWorkersSeconds: number;
   clientDir: string;
 };
 
@@ -72,6 +78,8 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): ServerConfig {
     mailFrom: e.LOTWISE_MAIL_FROM,
     workers: e.LOTWISE_WORKERS,
     redisUrl: e.LOTWISE_REDIS_URL,
+    redisOutageSeconds: e.LOTWISE_REDIS_OUTAGE_S,
+    noWorkersSeconds: e.LOTWISE_NO_WORKERS_S,
     clientDir: e.LOTWISE_CLIENT_DIR,
   };
 }

@@ -45,6 +45,12 @@ export function createEmbeddedDispatcher(options: { size?: number; chunkSize?: n
 }
 
 /** The dispatcher the settings ask for: distributed when a Redis URL is set, else embedded. */
-export function createDispatcher(config: { redisUrl?: string; workers?: number }, log?: Logger): RunDispatcher {
-  return config.redisUrl ? createDistributedDispatcher({ redisUrl: config.redisUrl, log }) : createEmbeddedDispatcher({ size: config.workers, log });
+export function createDispatcher(config: { redisUrl?: string; workers?: number; redisOutageSeconds?: number; noWorkersSeconds?: number }, log?: Logger): RunDispatcher {
+  if (!config.redisUrl) return createEmbeddedDispatcher({ size: config.workers, log });
+  return createDistributedDispatcher({
+    redisUrl: config.redisUrl,
+    outageMs: config.redisOutageSeconds === undefined ? undefined : config.redisOutageSeconds * 1000,
+    noWorkersMs: config.noWorkersSeconds === undefined ? undefined : config.noWorkersSeconds * 1000,
+    log,
+  });
 }

@@ -14,8 +14,8 @@
  *   worker's stalled-job check moves it back to waiting and some worker runs it again (same trials, same
  *   aggregate). A chunk that fails `CHUNK_ATTEMPTS` times fails its run with WORKER_FAILED and the reason.
  * - Outages: while Redis cannot be reached the run waits; after `outageMs` (default 60 s) without Redis the
- *   run fails with QUEUE_UNAVAILABLE, and after `outageMs` with no worker process connected it fails with
- *   NO_WORKERS — never a silent hang. Its inputs stay stored in MariaDB either way.
+ *   run fails with QUEUE_UNAVAILABLE, and after `noWorkersMs` (default 10 min) with no worker process connected
+ *   it fails with NO_WORKERS — never a silent hang. Its inputs stay stored in MariaDB either way.
  * - Cancel: the run's waiting chunks are removed; chunks already running finish and are dropped, then the
  *   batch is removed.
  */
@@ -37,8 +37,10 @@ export interface DistributedDispatcherOptions {
   redisUrl: string;
   /** trials per chunk job (default 2500; at most ⌈batchSize/4⌉ when the run stops when sure) */
   chunkSize?: number;
-  /** how long Redis may be unreachable, or no worker connected, before a run fails (default 60 s) */
+  /** how long Redis may be unreachable before a run fails (default 60 s) */
   outageMs?: number;
+  /** how long no worker process may be connected while a run waits before it fails (default 10 min) */
+  noWorkersMs?: number;
   /** how often every unfinished chunk is looked at besides the events (default 1000 ms) */
   pollMs?: number;
   log?: Logger;
@@ -55,6 +57,7 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
   const log = options.log ?? createLogger();
   const defaultChunk = validateChunkSize(options.chunkSize);
   const outageMs = options.outageMs ?? 60_000;
+  const noWorkersMs = options.noWorkersMs ?? 600_000;
   const pollMs = options.pollMs ?? 1000;
   const where = redactUrl(options.redisUrl);
   const producer = redisConnection(options.redisUrl, "producer");
@@ -155,8 +158,8 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
             }
             const workers = await chunks.getWorkersCount();
             noWorkersSince = workers > 0 ? null : (noWorkersSince ?? Date.now());
-            if (noWorkersSince !== null && Date.now() - noWorkersSince > outageMs) {
-              throw new WorkerFailure(`No Lotwise worker process has been connected to Redis at ${where} for ${Math.round(outageMs / 1000)} s (start one with \`npm run worker\`)`, { code: "NO_WORKERS" });
+            if (noWorkersSince !== null && Date.now() - noWorkersSince > noWorkersMs) {
+              throw new WorkerFailure(`No Lotwise worker process has been connected to Redis at ${where} for ${Math.round(noWorkersMs / 1000)} s (start one with \`npm run worker\`)`, { code: "NO_WORKERS" });
             }
           }
           if (redisDownSince !== null) log.info("redis_reachable_again", { runId, redis: where, afterMs: Date.now() - redisDownSince });

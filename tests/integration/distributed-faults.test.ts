@@ -54,7 +54,7 @@ const logged = (event: string) => log.lines.filter((l) => l.event === event);
 beforeAll(async () => {
   redis = await startTestRedis("faults");
   t = await createTestContext({
-    dispatcher: () => (dispatcher = createDistributedDispatcher({ redisUrl: redis.url, chunkSize: 10_000, pollMs: 200, outageMs: OUTAGE_MS, log })),
+    dispatcher: () => (dispatcher = createDistributedDispatcher({ redisUrl: redis.url, chunkSize: 10_000, pollMs: 200, outageMs: OUTAGE_MS, noWorkersMs: OUTAGE_MS, log })),
   });
   const signedIn = await t.signedInAgent(["analyst"]);
   agent = signedIn.agent;
