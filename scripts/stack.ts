@@ -122,6 +122,7 @@ async function runRedis(): Promise<number> {
   console.log(`lotwise: Redis on ${["127.0.0.1", ...extraBind].join(", ")} port ${port} (data in ${dir}, append-only file)`);
   console.log(`  server:  LOTWISE_REDIS_URL=${redis.url} npm start`);
   console.log(`  workers: LOTWISE_REDIS_URL=redis://<this host>:${port}/ npm run worker   (Ctrl-C stops Redis)`);
+  setInterval(() => undefined, 1 << 30); // redis-server runs detached: keep this process (and its Ctrl-C) alive
   return new Promise(() => undefined);
 }
 

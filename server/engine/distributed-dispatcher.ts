@@ -52,6 +52,8 @@ export interface DistributedDispatcher extends RunDispatcher {
 }
 
 const KEEP_FINISHED = { age: 24 * 3600 };
+/** Events kept in the chunk queue's stream (BullMQ's default of 10,000 would hold gigabytes of chunk results). */
+export const EVENTS_KEPT = 100;
 
 export function createDistributedDispatcher(options: DistributedDispatcherOptions): DistributedDispatcher {
   const log = options.log ?? createLogger();
@@ -61,7 +63,9 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
   const pollMs = options.pollMs ?? 1000;
   const where = redactUrl(options.redisUrl);
   const producer = redisConnection(options.redisUrl, "producer");
-  const chunks = new Queue<ChunkJobData, ChunkJobResult>(CHUNK_QUEUE, { connection: producer, prefix: CHUNK_QUEUE_PREFIX });
+  // BullMQ copies a job's return value into its event stream; a chunk's is ~0.1–0.5 MB, so the stream is kept short
+  // (the poll covers an event trimmed before it was read).
+  const chunks = new Queue<ChunkJobData, ChunkJobResult>(CHUNK_QUEUE, { connection: producer, prefix: CHUNK_QUEUE_PREFIX, streams: { events: { maxLen: EVENTS_KEPT } } });
   const batches = new Queue(BATCH_QUEUE, { connection: producer, prefix: CHUNK_QUEUE_PREFIX });
   const flows = new FlowProducer({ connection: producer, prefix: CHUNK_QUEUE_PREFIX });
   const events = new QueueEvents(CHUNK_QUEUE, { connection: redisConnection(options.redisUrl, "worker"), prefix: CHUNK_QUEUE_PREFIX });

@@ -120,9 +120,9 @@ export async function startWorker(redisUrl: string, name: string, options: { thr
     },
     async stop() {
       if (!gone()) child.kill("SIGTERM");
-      await Promise.race([exited, sleep(15_000)]);
-      if (!gone()) child.kill("SIGKILL");
+      const timer = setTimeout(() => child.kill("SIGKILL"), 15_000);
       await exited;
+      clearTimeout(timer);
     },
   };
 }

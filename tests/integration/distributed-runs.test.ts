@@ -1,6 +1,7 @@
+import { Redis } from "ioredis";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createEmbeddedDispatcher } from "../../server/engine/dispatcher";
-import { createDistributedDispatcher, type DistributedDispatcher } from "../../server/engine/distributed-dispatcher";
+import { createDistributedDispatcher, EVENTS_KEPT, type DistributedDispatcher } from "../../server/engine/distributed-dispatcher";
 import { Run } from "../../server/entities";
 import { toStoredResult } from "../../server/services/run-queue";
 import type { RunOptions } from "../../shared/engine/run-options";
@@ -96,6 +97,11 @@ describe("distributed mode: same seed, same stored result", () => {
     console.log(`three worker processes, 12 chunks of run ${runB.id}: ${perWorker.join(" / ")} chunks per process`);
     expect(perWorker.reduce((x, y) => x + y, 0)).toBe(12);
     expect(perWorker.filter((n) => n > 0).length).toBeGreaterThanOrEqual(2);
+    // Chunk results are copied into the event stream; it stays short (trimmed approximately, hence the slack).
+    const client = new Redis(redis.url);
+    const events = await client.xlen("lotwise:chunks:events").finally(() => client.disconnect());
+    expect(events).toBeGreaterThan(0);
+    expect(events).toBeLessThanOrEqual(2 * EVENTS_KEPT);
   }, 90_000);
 
   it("stop when sure: the same stopping point and result, with progress after every batch", async () => {
