@@ -93,7 +93,7 @@ describe("database outage", () => {
 
     const health = await request(app).get("/api/health");
     expect(health.status).toBe(503);
-    expect(health.body).toEqual({ status: "degraded", database: "down" });
+    expect(health.body).toEqual({ status: "degraded", database: "down", dispatch: { mode: "embedded", threads: 1 } });
     const reads = [
       await agent.get("/api/runs"),
       await agent.get(`/api/runs/${long}`),
