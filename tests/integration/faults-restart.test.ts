@@ -1,6 +1,5 @@
-import { spawn, type ChildProcess } from "node:child_process";
+import type { ChildProcess } from "node:child_process";
 import { randomBytes, randomUUID } from "node:crypto";
-import { createServer } from "node:net";
 import mysql from "mysql2/promise";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { hashPassword } from "../../server/auth/passwords";
@@ -10,6 +9,8 @@ import { createTrialPool } from "../../server/engine/trial-pool";
 import { Run, RunResultRow, User } from "../../server/entities";
 import { toStoredResult } from "../../server/services/run-queue";
 import type { RunOptions } from "../../shared/engine/run-options";
+import { until } from "../helpers/distributed";
+import { signInCookie, startServerProcess } from "../helpers/server-process";
 import type { TestContext } from "../helpers/test-context";
 import { makeRunFixture, type RunFixture } from "./access-samples/runs";
 
@@ -27,62 +28,13 @@ const children = new Set<ChildProcess>();
 let user: User;
 let f: RunFixture;
 
-const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
-async function until<T>(what: string, probe: () => Promise<T | null | undefined | false>, ms = 30_000): Promise<T> {
-  const end = Date.now() + ms;
-  for (;;) {
-    const v = await probe().catch(() => null);
-    if (v) return v;
-    if (Date.now() > end) throw new Error(`timed out waiting for ${what}`);
-    await sleep(100);
-  }
-}
-
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const s = createServer();
-    s.once("error", reject);
-    s.listen(0, "127.0.0.1", () => {
-      const port = (s.address() as { port: number }).port;
-      s.close(() => resolve(port));
-    });
-  });
-}
-
-/** Starts `node --import tsx server/index.ts` on the test database; resolves once /api/health answers. */
-async function startServerProcess(): Promise<{ child: ChildProcess; origin: string; output: () => string }> {
-  const port = await freePort();
-  const origin = `http://127.0.0.1:${port}`;
-  let output = "";
-  const child = spawn(process.execPath, ["--import", "tsx", "server/index.ts"], {
-    cwd: process.cwd(),
-    env: {
-      ...process.env, NODE_ENV: "test", LOTWISE_HOST: "127.0.0.1", LOTWISE_PORT: String(port), LOTWISE_PUBLIC_ORIGIN: origin,
-      LOTWISE_DB_NAME: dbName, LOTWISE_WORKERS: "1", LOTWISE_MAX_RUNNING: "1", LOTWISE_CLIENT_DIR: ".tmp/no-client",
-      LOTWISE_MAIL_SINK_PORT: "9", LOTWISE_LOG_LEVEL: "warn",
-    },
-    stdio: ["ignore", "pipe", "pipe"],
-  });
-  children.add(child);
-  child.once("exit", () => children.delete(child));
-  child.stdout!.on("data", (d) => (output += d));
-  child.stderr!.on("data", (d) => (output += d));
-  await until("the server to listen", async () => {
-    if (child.exitCode !== null) throw new Error(`server exited: ${output}`);
-    return (await fetch(`${origin}/api/health`)).ok;
-  }, 30_000).catch((err: Error) => {
-    throw new Error(`${err.message}\n${output}`);
-  });
-  return { child, origin, output: () => output };
-}
-
-async function signIn(origin: string): Promise<string> {
-  const res = await fetch(`${origin}/api/auth/sign-in`, {
-    method: "POST", headers: { "content-type": "application/json", origin }, body: JSON.stringify({ email: user.email, password: PASSWORD }),
-  });
-  expect(res.status).toBe(200);
-  return res.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
-}
+const startServer = async () => {
+  const server = await startServerProcess(dbName);
+  children.add(server.child);
+  server.child.once("exit", () => children.delete(server.child));
+  return server;
+};
+const signIn = (origin: string) => signInCookie(origin, user.email, PASSWORD);
 
 beforeAll(async () => {
   if (!process.env.LOTWISE_TEST_DB_READY) throw new Error("run through `npm test`");
@@ -107,7 +59,7 @@ afterAll(async () => {
 
 describe("server killed mid-run", () => {
   it("loses no accepted run: the queued ones run, the interrupted one re-runs to the uninterrupted result", async () => {
-    const first = await startServerProcess();
+    const first = await startServer();
     const cookie = await signIn(first.origin);
     const submit = async (trials: number, seed: number, extra: Record<string, unknown> = {}) => {
       const res = await fetch(`${first.origin}/api/runs`, {
@@ -130,7 +82,7 @@ describe("server killed mid-run", () => {
     expect(atKill.map((r) => r.state)).toEqual(["running", "queued", "queued", "queued"]);
     console.log(`server killed (SIGKILL) at ${running.trialsDone}/${running.trialsTotal} trials of the first run; three runs queued`);
 
-    const second = await startServerProcess();
+    const second = await startServer();
     try {
       const done = await until("every run to be done", async () => {
         const rows = await ds.getRepository(Run).find({ order: { queuedAt: "ASC" } });
