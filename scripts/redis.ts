@@ -24,10 +24,11 @@ const bin = (name: string) => (existsSync(`/usr/bin/${name}`) ? `/usr/bin/${name
  * fsync'd every second, so jobs survive a restart; no RDB snapshots. Protected mode stays on: with no password set,
  * Redis answers only on loopback. `extraBind` adds addresses (the tests add a veth address of their own network
  * namespace); protected mode is then off, as those addresses belong to a test network only this machine has.
+ * `password` sets `requirepass` (`npm run redis` sets one whenever it binds beyond loopback).
  * Resolves once the server answers PING.
  * @throws Error with the end of Redis's log when it does not start within 20 s
  */
-export async function startRedis(options: { dir: string; port: number; extraBind?: string[] }): Promise<RedisServer> {
+export async function startRedis(options: { dir: string; port: number; extraBind?: string[]; password?: string }): Promise<RedisServer> {
   const dir = resolve(options.dir);
   mkdirSync(dir, { recursive: true });
   const pidFile = `${dir}/redis.pid`;
@@ -44,11 +45,13 @@ export async function startRedis(options: { dir: string; port: number; extraBind
     "--port", String(options.port), "--bind", ...bind, "--dir", dir, "--pidfile", pidFile, "--logfile", logFile,
     "--daemonize", "no", "--appendonly", "yes", "--appendfsync", "everysec", "--save", "",
     "--protected-mode", options.extraBind?.length ? "no" : "yes", "--maxmemory-policy", "noeviction",
+    ...(options.password ? ["--requirepass", options.password] : []),
   ], { detached: true, stdio: "ignore" });
   child.unref();
   let exited = false;
   child.once("exit", () => (exited = true));
-  const ping = () => spawnSync(bin("redis-cli"), ["-h", "127.0.0.1", "-p", String(options.port), "ping"], { encoding: "utf8" }).stdout?.trim() === "PONG";
+  const ping = () =>
+    spawnSync(bin("redis-cli"), ["-h", "127.0.0.1", "-p", String(options.port), "--no-auth-warning", ...(options.password ? ["-a", options.password] : []), "ping"], { encoding: "utf8" }).stdout?.trim() === "PONG";
   const deadline = Date.now() + 20_000;
   while (!ping()) {
     if (exited || Date.now() > deadline) {

@@ -1,5 +1,6 @@
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
-import { existsSync, mkdirSync, readFileSync } from "node:fs";
+import { randomBytes } from "node:crypto";
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import { resolve } from "node:path";
 import { loadConfig } from "../server/config/env";
 import { createDataSource, openAndMigrate } from "../server/db/data-source";
@@ -11,6 +12,7 @@ import { seedDemoRuns } from "../server/seed/demo-runs";
 import { User } from "../server/entities";
 import { ensureDatabase, startMariaDb, type MariaDb } from "./mariadb";
 import { startRedis } from "./redis";
+import { redactUrl } from "../server/engine/chunk-jobs";
 
 type Mode = "start" | "dev" | "test" | "redis";
 const mode = (process.argv[2] ?? "start") as Mode;
@@ -67,7 +69,7 @@ async function main(): Promise<number> {
   }
 
   build();
-  if (config.redisUrl) console.log(`lotwise: distributed mode: runs go to Redis at ${config.redisUrl.replace(/\/\/([^@/]*)@/, "//***@")}; start workers with \`npm run worker\``);
+  if (config.redisUrl) console.log(`lotwise: distributed mode: runs go to Redis at ${redactUrl(config.redisUrl)}; start workers with \`npm run worker\``);
   const server = await startServer(config);
   cleanups.push(() => server.close());
   const queued = await seedDemoRuns(server.ctx, demo.designs, demoEmail("analyst"));
@@ -117,11 +119,20 @@ async function runRedis(): Promise<number> {
   const port = Number(process.env.LOTWISE_REDIS_PORT ?? 6390);
   const dir = process.env.LOTWISE_REDIS_DIR ?? ".tmp/redis";
   const extraBind = (process.env.LOTWISE_REDIS_BIND ?? "").split(/\s+/).filter(Boolean);
-  const redis = await startRedis({ dir, port, extraBind });
+  // Reachable beyond loopback: require a password (made once, kept in the data folder, readable by root only).
+  let password: string | undefined;
+  if (extraBind.length > 0) {
+    mkdirSync(dir, { recursive: true });
+    const file = `${dir}/password`;
+    if (!existsSync(file)) writeFileSync(file, `${randomBytes(18).toString("base64url")}\n`, { mode: 0o600 });
+    password = readFileSync(file, "utf8").trim();
+  }
+  const redis = await startRedis({ dir, port, extraBind, password });
   cleanups.push(() => redis.stop());
-  console.log(`lotwise: Redis on ${["127.0.0.1", ...extraBind].join(", ")} port ${port} (data in ${dir}, append-only file)`);
-  console.log(`  server:  LOTWISE_REDIS_URL=${redis.url} npm start`);
-  console.log(`  workers: LOTWISE_REDIS_URL=redis://<this host>:${port}/ npm run worker   (Ctrl-C stops Redis)`);
+  const auth = password ? `:${password}@` : "";
+  console.log(`lotwise: Redis on ${["127.0.0.1", ...extraBind].join(", ")} port ${port} (data in ${dir}, append-only file${password ? `, password in ${dir}/password` : ", loopback only, no password"})`);
+  console.log(`  server:  LOTWISE_REDIS_URL=redis://${auth}127.0.0.1:${port}/ npm start`);
+  console.log(`  workers: LOTWISE_REDIS_URL=redis://${auth}${extraBind[0] ?? "<this host>"}:${port}/ npm run worker   (Ctrl-C stops Redis)`);
   setInterval(() => undefined, 1 << 30); // redis-server runs detached: keep this process (and its Ctrl-C) alive
   return new Promise(() => undefined);
 }

@@ -3,6 +3,7 @@ import { createSignInLimiter } from "./auth/sign-in-limiter";
 import type { ServerConfig } from "./config/env";
 import type { AppContext } from "./context";
 import { createDataSource, openAndMigrate } from "./db/data-source";
+import { redactUrl } from "./engine/chunk-jobs";
 import { createDispatcher } from "./engine/dispatcher";
 import { createLogger, type Logger } from "./logger";
 import { createMailer } from "./mail/mailer";
@@ -30,7 +31,7 @@ export async function createContext(config: ServerConfig, options: { log?: Logge
   const sessions = createSessionService(config.db, { secure: config.env === "production" });
   const mailer = createMailer(config);
   const dispatcher = createDispatcher(config, log);
-  if (dispatcher.mode === "distributed") log.info("run_dispatch_distributed", { redis: config.redisUrl?.replace(/\/\/([^@/]*)@/, "//***@") });
+  if (dispatcher.mode === "distributed") log.info("run_dispatch_distributed", { redis: redactUrl(config.redisUrl!) });
   const runQueue = createRunQueue({ dataSource, mailer, log, config, dispatcher, maxRunning });
   const ctx: AppContext = { config, dataSource, sessions, mailer, limiter: createSignInLimiter(), log, runQueue };
   await runQueue.start();

@@ -16,7 +16,7 @@
  */
 import os from "node:os";
 import { Worker } from "bullmq";
-import { CHUNK_QUEUE, CHUNK_QUEUE_PREFIX, packAggregate, redisConnection, type ChunkJobData, type ChunkJobResult } from "../server/engine/chunk-jobs";
+import { CHUNK_QUEUE, CHUNK_QUEUE_PREFIX, packAggregate, redactUrl, redisConnection, type ChunkJobData, type ChunkJobResult } from "../server/engine/chunk-jobs";
 import { createTrialPool } from "../server/engine/trial-pool";
 import { redisUrlProblem } from "../server/config/env";
 import { createLogger } from "../server/logger";
@@ -48,11 +48,21 @@ const stalledInterval = setting("LOTWISE_STALLED_CHECK_MS", 5_000, 200, 600_000)
 const name = process.env.LOTWISE_WORKER_NAME?.trim() || `${os.hostname()}-${process.pid}`;
 
 const pool = createTrialPool({ size: threads, log });
+// Test-only hook (ignored when NODE_ENV is production): LOTWISE_TEST_CHUNK_FAULT="failfirst:SEED:START" makes the
+// first try of every chunk of a run with that seed whose first trial is ≥ START throw, so its retry must succeed.
+const firstTryFaults = (process.env.NODE_ENV === "production" ? "" : (process.env.LOTWISE_TEST_CHUNK_FAULT ?? "")).split(",").flatMap((spec) => {
+  const m = /^failfirst:([^:]+):(\d+)$/.exec(spec.trim());
+  return m ? [{ seed: m[1], start: Number(m[2]) }] : [];
+});
 let chunksDone = 0;
 
 const worker = new Worker<ChunkJobData, ChunkJobResult>(
   CHUNK_QUEUE,
   async (job) => {
+    const task = job.data.task;
+    if (job.attemptsMade === 0 && firstTryFaults.some((f) => String(task?.options?.seed) === f.seed && task.start >= f.start)) {
+      throw new Error(`test fault: the first try of trials ${task.start}.. fails`);
+    }
     try {
       const started = Date.now();
       const packed = packAggregate(await pool.runChunkPacked(job.data.task));
@@ -86,7 +96,7 @@ worker.on("error", (err) => {
 });
 worker.on("failed", (job, err) => log.warn("chunk_failed", { worker: name, jobId: job?.id, attempt: job?.attemptsMade, message: err.message.slice(0, 300) }));
 worker.on("stalled", (jobId) => log.warn("chunk_stalled_requeued", { worker: name, jobId }));
-worker.on("ready", () => log.info("worker_ready", { worker: name, threads, redis: redisUrl.replace(/\/\/([^@/]*)@/, "//***@"), lockDuration, stalledInterval }));
+worker.on("ready", () => log.info("worker_ready", { worker: name, threads, redis: redactUrl(redisUrl), lockDuration, stalledInterval }));
 
 let stopping = false;
 async function stop(signal: string): Promise<void> {

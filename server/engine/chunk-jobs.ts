@@ -63,5 +63,17 @@ export function unpackChunkResult(value: unknown): TrialAggregate {
 export function redisConnection(url: string, role: "worker" | "producer"): ConnectionOptions {
   return role === "worker"
     ? { url, maxRetriesPerRequest: null, retryStrategy: (times: number) => Math.min(100 * times, 2000) }
-    : { url, maxRetriesPerRequest: 1, enableOfflineQueue: false, retryStrategy: (times: number) => Math.min(100 * times, 2000) };
+    : { url, maxRetriesPerRequest: 1, enableOfflineQueue: false, commandTimeout: 5000, retryStrategy: (times: number) => Math.min(100 * times, 2000) };
+}
+
+/** The URL without its password or query (ioredis also reads `?password=`), for messages and logs. */
+export function redactUrl(raw: string): string {
+  try {
+    const u = new URL(raw);
+    if (u.password) u.password = "***";
+    u.search = "";
+    return u.toString();
+  } catch {
+    return "(unreadable URL)";
+  }
 }

@@ -16,6 +16,8 @@ import type { Logger } from "../logger";
 import { createDistributedDispatcher } from "./distributed-dispatcher";
 import { createTrialPool, type RunControls } from "./trial-pool";
 
+export { ServerStopping } from "./trial-pool";
+
 /** What health reports of the dispatcher. */
 export type DispatchStatus =
   | { mode: "embedded"; threads: number }

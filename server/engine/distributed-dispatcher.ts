@@ -27,11 +27,11 @@ import { driveRun, validateChunkSize, type ChunkTask } from "../../shared/engine
 import { planRun } from "../../shared/engine/run-plan";
 import { createLogger, type Logger } from "../logger";
 import {
-  BATCH_QUEUE, CHUNK_ATTEMPTS, CHUNK_QUEUE, CHUNK_QUEUE_PREFIX, chunkJobId, redisConnection, unpackChunkResult,
+  BATCH_QUEUE, CHUNK_ATTEMPTS, CHUNK_QUEUE, CHUNK_QUEUE_PREFIX, chunkJobId, redactUrl, redisConnection, unpackChunkResult,
   type ChunkJobData, type ChunkJobResult,
 } from "./chunk-jobs";
 import type { DispatchStatus, RunDispatcher } from "./dispatcher";
-import { WorkerFailure } from "./trial-pool";
+import { ServerStopping, WorkerFailure } from "./trial-pool";
 
 export interface DistributedDispatcherOptions {
   redisUrl: string;
@@ -61,6 +61,8 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
   const outageMs = options.outageMs ?? 60_000;
   const noWorkersMs = options.noWorkersMs ?? 600_000;
   const pollMs = options.pollMs ?? 1000;
+  // One look at Redis may take this long before it counts as Redis not answering.
+  const passTimeoutMs = Math.max(1000, Math.min(10_000, outageMs / 2));
   const where = redactUrl(options.redisUrl);
   const producer = redisConnection(options.redisUrl, "producer");
   // BullMQ copies a job's return value into its event stream; a chunk's is ~0.1–0.5 MB, so the stream is kept short
@@ -68,7 +70,9 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
   const chunks = new Queue<ChunkJobData, ChunkJobResult>(CHUNK_QUEUE, { connection: producer, prefix: CHUNK_QUEUE_PREFIX, streams: { events: { maxLen: EVENTS_KEPT } } });
   const batches = new Queue(BATCH_QUEUE, { connection: producer, prefix: CHUNK_QUEUE_PREFIX });
   const flows = new FlowProducer({ connection: producer, prefix: CHUNK_QUEUE_PREFIX });
-  const events = new QueueEvents(CHUNK_QUEUE, { connection: redisConnection(options.redisUrl, "worker"), prefix: CHUNK_QUEUE_PREFIX });
+  // QueueEvents (a blocking connection of its own) starts once Redis has answered: if it never reached Redis, its
+  // close() would wait for a first connection that may never come, and keep the process alive retrying.
+  let events: QueueEvents | null = null;
   // ioredis reports every failed reconnect as an 'error'; the runs waiting on Redis report the outage themselves.
   let lastErrorLog = 0;
   const onRedisError = (err: Error) => {
@@ -79,15 +83,37 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
   chunks.on("error", onRedisError);
   batches.on("error", onRedisError);
   flows.on("error", onRedisError);
-  events.on("error", onRedisError);
   const pokes = new Map<string, () => void>();
-  events.on("completed", ({ jobId }) => pokes.get(jobId)?.());
-  events.on("failed", ({ jobId }) => pokes.get(jobId)?.());
-  events.on("stalled", ({ jobId }) => log.warn("chunk_job_stalled", { jobId }));
+  function listen(): void {
+    if (events || closed) return;
+    events = new QueueEvents(CHUNK_QUEUE, { connection: redisConnection(options.redisUrl, "worker"), prefix: CHUNK_QUEUE_PREFIX });
+    events.on("error", onRedisError);
+    events.on("completed", ({ jobId }) => pokes.get(jobId)?.());
+    events.on("failed", ({ jobId }) => pokes.get(jobId)?.());
+    events.on("stalled", ({ jobId }) => log.warn("chunk_job_stalled", { jobId }));
+  }
   let closed = false;
   const wakers = new Set<() => void>();
+  let lastTrim = 0;
+  // Parents whose batch ended but could not be removed (a run cancelled while the server was down, a removal given
+  // up on) end in `wait` or `failed`, where no worker takes them: drop those older than a day, now and every hour.
+  const sweepOld = () =>
+    void Promise.all([batches.clean(KEEP_FINISHED.age * 1000, 1000, "wait"), batches.clean(KEEP_FINISHED.age * 1000, 1000, "failed")]).catch(() => undefined);
+  sweepOld();
+  const sweeper = setInterval(sweepOld, 3600_000);
+  sweeper.unref();
 
-  /** Runs one batch as a flow and passes each chunk's aggregate to `accept` as it arrives. */
+  /** The number of connected worker processes; null when Redis does not let us list clients (an ACL without CLIENT LIST). */
+  async function workerCount(): Promise<number | null> {
+    try {
+      return await chunks.getWorkersCount();
+    } catch (err) {
+      if (/NOPERM/i.test(String((err as Error)?.message))) return null;
+      throw err;
+    }
+  }
+
+  /** Runs one batch as a flow and passes each chunk's aggregate to `accept` as it arrives (each chunk exactly once). */
   async function runBatch(runId: string, base: Omit<ChunkTask, "start" | "count">, batch: { start: number; count: number }[], accept: (agg: TrialAggregate) => void, signal: AbortSignal): Promise<void> {
     const first = batch[0].start;
     const size = batch.reduce((n, c) => n + c.count, 0);
@@ -108,72 +134,111 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
     let added = false;
     let redisDownSince: number | null = null;
     let noWorkersSince: number | null = null;
+    let strangeErrors = 0;
     let lastSweep = 0;
-    const flow = () => ({
+    // Each look at Redis is one numbered pass; a pass given up on (timed out) can never accept a chunk afterwards,
+    // and a chunk is accepted only while it is still open, in the same synchronous step that closes it.
+    let pass = 0;
+    const chunkJob = (id: string) => {
+      const c = rangeOf.get(id)!;
+      return {
+        name: "chunk",
+        queueName: CHUNK_QUEUE,
+        data: { runId, task: { ...base, start: c.start, count: c.count } } satisfies ChunkJobData,
+        opts: { jobId: id, attempts: CHUNK_ATTEMPTS, backoff: { type: "fixed" as const, delay: 500 }, failParentOnFailure: true, removeOnComplete: KEEP_FINISHED, removeOnFail: KEEP_FINISHED },
+      };
+    };
+    const flow = (only: readonly string[] = ids) => ({
       name: "batch",
       queueName: BATCH_QUEUE,
       data: { runId, start: first, trials: size },
       opts: { jobId: parentId, removeOnComplete: KEEP_FINISHED, removeOnFail: KEEP_FINISHED },
-      children: batch.map((c, k) => ({
-        name: "chunk",
-        queueName: CHUNK_QUEUE,
-        data: { runId, task: { ...base, start: c.start, count: c.count } } satisfies ChunkJobData,
-        opts: { jobId: ids[k], attempts: CHUNK_ATTEMPTS, backoff: { type: "fixed", delay: 500 }, failParentOnFailure: true, removeOnComplete: false, removeOnFail: false },
-      })),
+      children: only.map(chunkJob),
     });
+
+    async function onePass(gen: number): Promise<void> {
+      const current = () => gen === pass && !signal.aborted && !closed;
+      if (!added) {
+        // A batch left by an earlier start of this run is reused, unless it failed (then it is tried afresh).
+        const old = await batches.getJob(parentId);
+        const reuse = old !== undefined && (await old.getState()) !== "failed";
+        if (old && !reuse) await old.remove(); // "locked" while a chunk of it still runs: tried again next pass
+        if (!current()) return;
+        if (!reuse) await flows.add(flow());
+        added = true;
+      }
+      const sweep = Date.now() - lastSweep >= pollMs;
+      const look = sweep ? [...open] : [...poked].filter((id) => open.has(id));
+      poked.clear();
+      const missing: string[] = [];
+      for (const id of look) {
+        // The state first, then (once completed, which it stays) the job with its return value: a job read first
+        // could complete between the two reads and show no return value yet.
+        const state = await chunks.getJobState(id);
+        if (state === "unknown") {
+          missing.push(id);
+          continue;
+        }
+        if (state !== "completed" && state !== "failed") continue;
+        const job = await chunks.getJob(id);
+        if (!current()) return;
+        if (!job) {
+          missing.push(id);
+        } else if (state === "completed" && open.has(id)) {
+          const agg = unpackChunkResult(job.returnvalue);
+          open.delete(id);
+          accept(agg);
+        } else if (state === "failed") {
+          const r = rangeOf.get(id)!;
+          throw new WorkerFailure(`A worker failed on trials ${r.start}..${r.start + r.count - 1} (${job.attemptsMade} tries): ${job.failedReason}`);
+        }
+      }
+      if (open.size === 0 || !sweep) return;
+      lastSweep = Date.now();
+      const gone = missing.filter((id) => open.has(id));
+      if (gone.length > 0) {
+        // Redis lost these chunks (restarted without its data, or an earlier clean-up removed them): add them again.
+        const parent = await batches.getJob(parentId);
+        if (!current()) return;
+        log.warn("chunk_batch_missing_readded", { runId, batch: parentId, missing: gone.length, parent: parent ? "kept" : "lost" });
+        if (parent) await chunks.addBulk(gone.map((id) => { const { name, data, opts } = chunkJob(id); return { name, data, opts: { ...opts, failParentOnFailure: false } }; }));
+        else await flows.add(flow(gone));
+      }
+      const workers = await workerCount();
+      noWorkersSince = workers !== 0 ? null : (noWorkersSince ?? Date.now());
+      if (noWorkersSince !== null && Date.now() - noWorkersSince > noWorkersMs) {
+        throw new WorkerFailure(`No Lotwise worker process has been connected to Redis at ${where} for ${Math.round(noWorkersMs / 1000)} s (start one with \`npm run worker\`)`, { code: "NO_WORKERS" });
+      }
+      if (Date.now() - lastTrim > 10_000) {
+        lastTrim = Date.now();
+        await chunks.trimEvents(EVENTS_KEPT); // the stream's length setting is lost if Redis lost its data
+      }
+    }
+
+    let stopping = false;
     try {
       for (;;) {
         if (signal.aborted) throw new EngineError("CANCELLED", "run cancelled");
         if (closed) throw new EngineError("CANCELLED", "dispatcher closed");
+        const gen = ++pass;
         try {
-          if (!added) {
-            // A batch left by an earlier start of this run is reused, unless it failed (then it is tried afresh).
-            const old = await batches.getJob(parentId);
-            const reuse = old !== undefined && (await old.getState()) !== "failed";
-            if (old && !reuse) await old.remove();
-            if (!reuse) await flows.add(flow());
-            added = true;
-          }
-          const sweep = Date.now() - lastSweep >= pollMs;
-          const look = sweep ? [...open] : [...poked].filter((id) => open.has(id));
-          poked.clear();
-          let missing = 0;
-          for (const id of look) {
-            const job = await chunks.getJob(id);
-            if (!job) {
-              missing++;
-              continue;
-            }
-            if (job.finishedOn && job.returnvalue != null && !job.failedReason) {
-              accept(unpackChunkResult(job.returnvalue));
-              open.delete(id);
-            } else if ((await job.getState()) === "failed") {
-              const r = rangeOf.get(id)!;
-              throw new WorkerFailure(`A worker failed on trials ${r.start}..${r.start + r.count - 1} (${job.attemptsMade} tries): ${job.failedReason}`);
-            }
-          }
+          await within(onePass(gen), passTimeoutMs, signal);
+          listen();
           if (open.size === 0) break;
-          if (sweep) {
-            lastSweep = Date.now();
-            if (missing > 0 && (await batches.getJob(parentId)) === undefined) {
-              // Redis came back without this batch (restarted without its data): add it again and go on.
-              log.warn("chunk_batch_missing_readded", { runId, batch: parentId, missing });
-              await flows.add({ ...flow(), children: flow().children.filter((c) => open.has(c.opts.jobId)) });
-            }
-            const workers = await chunks.getWorkersCount();
-            noWorkersSince = workers > 0 ? null : (noWorkersSince ?? Date.now());
-            if (noWorkersSince !== null && Date.now() - noWorkersSince > noWorkersMs) {
-              throw new WorkerFailure(`No Lotwise worker process has been connected to Redis at ${where} for ${Math.round(noWorkersMs / 1000)} s (start one with \`npm run worker\`)`, { code: "NO_WORKERS" });
-            }
-          }
           if (redisDownSince !== null) log.info("redis_reachable_again", { runId, redis: where, afterMs: Date.now() - redisDownSince });
           redisDownSince = null;
+          strangeErrors = 0;
         } catch (err) {
+          pass++; // whatever that pass still does, it accepts nothing
           if (err instanceof EngineError || err instanceof WorkerFailure) throw err;
-          redisDownSince ??= Date.now();
-          if (Date.now() - redisDownSince > outageMs) {
-            throw new WorkerFailure(`Redis at ${where} could not be reached for ${Math.round(outageMs / 1000)} s: ${(err as Error).message}`, { code: "QUEUE_UNAVAILABLE", cause: err });
-          }
+          if (isRedisTrouble(err)) {
+            redisDownSince ??= Date.now();
+            if (Date.now() - redisDownSince > outageMs) {
+              throw new WorkerFailure(`Redis at ${where} could not be reached for ${Math.round(outageMs / 1000)} s: ${(err as Error).message}`, { code: "QUEUE_UNAVAILABLE", cause: err });
+            }
+          } else if (++strangeErrors >= 5) {
+            throw new Error(`distributed run: ${(err as Error)?.message ?? String(err)}`, { cause: err });
+          } else log.warn("chunk_batch_pass_failed", { runId, message: String((err as Error)?.message ?? err).slice(0, 300) });
         }
         await new Promise<void>((resolve) => {
           const timer = setTimeout(done, redisDownSince === null ? pollMs : Math.min(pollMs, 500));
@@ -183,14 +248,15 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
             resolve();
           }
           wake = done;
-          if (poked.size > 0 || signal.aborted) done();
+          if (poked.size > 0 || signal.aborted || closed) done();
         });
       }
-      cleanUp(parentId, ids);
     } catch (err) {
-      cleanUp(parentId, ids);
+      // A server that is stopping leaves its batches in Redis: the next start re-queues the run and uses them.
+      stopping = closed || signal.reason instanceof ServerStopping;
       throw err;
     } finally {
+      if (!stopping) cleanUp(parentId, ids);
       signal.removeEventListener("abort", onAbort);
       wakers.delete(onAbort);
       for (const id of ids) pokes.delete(id);
@@ -205,21 +271,33 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
 
   /**
    * Removes a batch from Redis once nothing of it is running: its chunks, then the parent. A chunk still running
-   * (after a cancel or a failure), or Redis may be away, so what is left is tried again up to 10 times, 2 s apart
-   * doubling to 1 min (about 6 min in all); a finished job still left then is dropped by BullMQ after a day.
+   * (after a cancel or a failure) cannot be removed yet, nor anything while Redis is away, so what is left is tried
+   * again up to 10 times, 2 s apart doubling to 1 min (about 6 min in all). Chunks still left then are dropped by
+   * BullMQ a day after they finished, parents by the hourly sweep.
    */
   async function removeBatch(parentId: string, ids: string[], attempt: number): Promise<void> {
     const left: string[] = [];
+    const never = new AbortController().signal;
     try {
       for (const id of ids) {
-        const ok = await chunks.getJob(id).then((j) => j?.remove()).then(() => true, () => false);
+        const ok = await within(chunks.getJob(id).then((j) => j?.remove()), passTimeoutMs, never).then(() => true, () => false);
         if (!ok) left.push(id);
       }
-      await (await batches.getJob(parentId))?.remove();
+      await within(batches.getJob(parentId).then((p) => p?.remove()), passTimeoutMs, never);
     } catch {
       left.push("");
     }
     if (left.length > 0 && attempt < 10 && !closed) setTimeout(() => void removeBatch(parentId, left.filter(Boolean), attempt + 1), Math.min(2000 * 2 ** attempt, 60_000)).unref();
+  }
+
+  let cachedStatus: { at: number; value: Promise<DispatchStatus> } | null = null;
+  async function readStatus(): Promise<DispatchStatus> {
+    try {
+      const [workers, counts] = await within(Promise.all([workerCount(), chunks.getJobCounts("waiting", "active", "prioritized")]), 2000, new AbortController().signal);
+      return { mode: "distributed", redis: "up", workers, waitingChunks: (counts.waiting ?? 0) + (counts.prioritized ?? 0), activeChunks: counts.active ?? 0 };
+    } catch {
+      return { mode: "distributed", redis: "down", workers: null, waitingChunks: null, activeChunks: null };
+    }
   }
 
   return {
@@ -230,9 +308,9 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
       const runId = controls.runId ?? randomUUID();
       const base = { netlist, limits, options: runOptions };
       const local = new AbortController();
-      const abort = () => local.abort();
+      const abort = () => local.abort(controls.signal?.reason);
       controls.signal?.addEventListener("abort", abort, { once: true });
-      if (controls.signal?.aborted) local.abort();
+      if (controls.signal?.aborted) abort();
       const chunkSize = controls.chunkSize ?? defaultChunk;
       try {
         return await driveRun(plan, (batch, accept) => runBatch(runId, base, batch, accept, local.signal), {
@@ -247,31 +325,54 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
         controls.signal?.removeEventListener("abort", abort);
       }
     },
-    async status(): Promise<DispatchStatus> {
-      try {
-        const [workers, counts] = await Promise.all([chunks.getWorkersCount(), chunks.getJobCounts("waiting", "active", "prioritized")]);
-        return { mode: "distributed", redis: "up", workers, waitingChunks: (counts.waiting ?? 0) + (counts.prioritized ?? 0), activeChunks: counts.active ?? 0 };
-      } catch {
-        return { mode: "distributed", redis: "down", workers: null, waitingChunks: null, activeChunks: null };
-      }
+    /** Cached for 2 s: health is public and polled, and each look lists Redis's clients. */
+    status(): Promise<DispatchStatus> {
+      if (!cachedStatus || Date.now() - cachedStatus.at > 2000) cachedStatus = { at: Date.now(), value: readStatus() };
+      return cachedStatus.value;
     },
     async close() {
       closed = true;
+      clearInterval(sweeper);
       for (const w of [...wakers]) w();
-      // Let the removal of finished batches end (bounded: Redis may be away).
-      await Promise.race([Promise.allSettled([...removals]), new Promise((r) => setTimeout(r, 3000).unref())]);
-      await Promise.allSettled([events.close(), flows.close(), batches.close(), chunks.close()]);
+      const bounded = (p: Promise<unknown>, ms: number) => Promise.race([p, new Promise((r) => setTimeout(r, ms).unref())]);
+      // Let the removal of finished batches end, then close; both bounded, as Redis may be away.
+      await bounded(Promise.allSettled([...removals]), 3000);
+      // A connection that never reached Redis can keep close() (QueueEvents) waiting: bounded, then dropped.
+      const conns = [events, flows, batches, chunks].filter((c) => c !== null);
+      await bounded(Promise.allSettled(conns.map((c) => c.close())), 5000);
+      await bounded(Promise.allSettled(conns.map((c) => c.disconnect())), 1000);
     },
   };
 }
 
-/** The URL without its password, for messages and logs. */
-export function redactUrl(raw: string): string {
-  try {
-    const u = new URL(raw);
-    if (u.password) u.password = "***";
-    return u.toString();
-  } catch {
-    return "(unreadable URL)";
+/**
+ * Resolves or rejects as `p` does, but rejects with a RedisTimeout after `ms` and with CANCELLED when `signal`
+ * aborts, so a look at a Redis that never answers (never connected, a half-open link) cannot hold a run forever.
+ */
+function within<T>(p: Promise<T>, ms: number, signal: AbortSignal): Promise<T> {
+  return new Promise<T>((resolve, reject) => {
+    const timer = setTimeout(() => reject(new RedisTimeout(`no answer from Redis within ${ms} ms`)), ms);
+    const onAbort = () => reject(new EngineError("CANCELLED", "run cancelled"));
+    signal.addEventListener("abort", onAbort, { once: true });
+    p.then(resolve, reject).finally(() => {
+      clearTimeout(timer);
+      signal.removeEventListener("abort", onAbort);
+    });
+  });
+}
+
+class RedisTimeout extends Error {
+  constructor(message: string) {
+    super(message);
+    this.name = "RedisTimeout";
   }
+}
+
+/** Errors that mean Redis is away or not ready yet (waited out up to `outageMs`), as opposed to a fault of ours. */
+export function isRedisTrouble(err: unknown): boolean {
+  if (err instanceof RedisTimeout) return true;
+  const e = err as { name?: string; code?: string; message?: string } | null;
+  if (e?.name === "MaxRetriesPerRequestError") return true;
+  if (e?.code && /^(ECONNREFUSED|ECONNRESET|ETIMEDOUT|EPIPE|EHOSTUNREACH|ENETUNREACH|ENOTFOUND|EAI_AGAIN)$/.test(e.code)) return true;
+  return /Connection is closed|Stream isn't writeable|Command timed out|ECONNREFUSED|ECONNRESET|ETIMEDOUT|^LOADING|^BUSY|^TRYAGAIN|^MASTERDOWN|^READONLY|locked/i.test(String(e?.message ?? ""));
 }

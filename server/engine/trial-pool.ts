@@ -36,6 +36,17 @@ export class WorkerFailure extends Error {
   }
 }
 
+/**
+ * The abort reason the run queue gives when the server stops (as opposed to a cancel): distributed mode then leaves
+ * the run's chunk jobs in Redis, so the next start, which re-queues the run, uses the chunks finished meanwhile.
+ */
+export class ServerStopping extends Error {
+  constructor() {
+    super("server stopping");
+    this.name = "ServerStopping";
+  }
+}
+
 /** Pool settings. */
 export interface TrialPoolOptions {
   /** worker threads (default os.availableParallelism()) */

@@ -23,7 +23,7 @@
  */
 import type { DataSource } from "typeorm";
 import type { ServerConfig } from "../config/env";
-import type { DispatchStatus, RunDispatcher } from "../engine/dispatcher";
+import { ServerStopping, type DispatchStatus, type RunDispatcher } from "../engine/dispatcher";
 import { WorkerFailure } from "../engine/trial-pool";
 import { Design, DesignRevision, Run, RunResultRow, User } from "../entities";
 import type { RunState } from "../entities/run.entity";
@@ -389,7 +389,7 @@ export function createRunQueue(deps: RunQueueDeps): RunQueue {
       if (pumpRetry) clearTimeout(pumpRetry);
       pumpRetry = null;
       for (const wake of [...sleepers]) wake();
-      for (const a of active.values()) a.controller.abort();
+      for (const a of active.values()) a.controller.abort(new ServerStopping());
       await pumping;
       await Promise.allSettled([...executions]);
       idleWaiters.splice(0).forEach((w) => w());

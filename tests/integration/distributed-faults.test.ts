@@ -4,7 +4,8 @@ import { createDistributedDispatcher, type DistributedDispatcher } from "../../s
 import { Run } from "../../server/entities";
 import { toStoredResult } from "../../server/services/run-queue";
 import type { RunOptions } from "../../shared/engine/run-options";
-import { recordingLogger, sleep, startTestRedis, startWorker, until, type WorkerProcess } from "../helpers/distributed";
+import { WorkerFailure } from "../../server/engine/trial-pool";
+import { freePort, recordingLogger, sleep, startTestRedis, startWorker, until, type WorkerProcess } from "../helpers/distributed";
 import { createTestContext, ORIGIN, type TestContext } from "../helpers/test-context";
 import { makeRunFixture, type RunFixture } from "./access-samples/runs";
 
@@ -135,6 +136,22 @@ describe("distributed mode under faults", () => {
     await until("both workers back on Redis", async () => (await dispatcher!.status()).mode === "distributed" && (await dispatcher!.status() as { workers: number }).workers === 2, 20_000);
     await expectReferenceResult(await finished(await launch({ trials: 10_000, seed: 25 })));
   }, 120_000);
+
+  it("Redis unreachable from the start (never connected): the run fails with QUEUE_UNAVAILABLE instead of hanging", async () => {
+    const nowhere = `redis://127.0.0.1:${await freePort()}/`;
+    const lonely = createDistributedDispatcher({ redisUrl: nowhere, pollMs: 200, outageMs: 2000, log: recordingLogger() });
+    const started = Date.now();
+    try {
+      const err = (await lonely.runMonteCarlo(f.revision.netlist, f.limitSet.limits, { trials: 1000, seed: 27 } as RunOptions).catch((e: unknown) => e)) as WorkerFailure;
+      expect(err).toBeInstanceOf(WorkerFailure);
+      expect(err.code).toBe("QUEUE_UNAVAILABLE");
+      expect(err.message).toContain(`Redis at ${nowhere} could not be reached for 2 s`);
+      expect(Date.now() - started).toBeLessThan(15_000);
+      expect(await lonely.status()).toMatchObject({ mode: "distributed", redis: "down" });
+    } finally {
+      await lonely.close();
+    }
+  }, 30_000);
 
   it("no worker process connected: the run fails with NO_WORKERS and says how to start one", async () => {
     await Promise.all([a.kill(), b.kill()]);

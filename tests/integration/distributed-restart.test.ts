@@ -99,4 +99,40 @@ describe("distributed mode: server killed mid-run", () => {
     expect(new Set(done).size).toBe(20);
     console.log(`server killed (SIGKILL) after ${atKill} of 20 chunks; the second server used every chunk in Redis: 20 computed in all, result identical`);
   }, 120_000);
+
+  it("a clean stop (SIGTERM) mid-run leaves the run's chunks in Redis: the next server uses them, the result unchanged", async () => {
+    const current = servers.at(-1)!;
+    const cookie = await signInCookie(current.origin, user.email, PASSWORD);
+    const res = await fetch(`${current.origin}/api/runs`, {
+      method: "POST", headers: { "content-type": "application/json", origin: current.origin, cookie },
+      body: JSON.stringify({ revisionId: f.revision.id, limitSetId: f.limitSet.id, trials: 50_000, seed: 42 }),
+    });
+    expect(res.status).toBe(201);
+    const id = ((await res.json()) as { run: { id: string } }).run.id;
+    const chunksOf = () => workers.flatMap((w) => w.chunksDone()).filter((j) => j.startsWith(`${id}.`));
+    await until("a few chunks done", async () => chunksOf().length >= 3, 30_000);
+    current.child.kill("SIGTERM");
+    await current.exited;
+    expect(current.child.exitCode).toBe(0);
+    const atStop = chunksOf().length;
+    expect((await ds.getRepository(Run).findOneByOrFail({ id })).state).toBe("queued"); // handed back by the stopping server
+
+    await serve();
+    const run = await until("the run to end", async () => {
+      const r = await ds.getRepository(Run).findOneByOrFail({ id });
+      return ["done", "failed", "cancelled"].includes(r.state) ? r : null;
+    }, 60_000);
+    expect(run.state, `${run.errorCode}: ${run.errorMessage}`).toBe("done");
+    const rows = (await ds.query("SELECT result FROM run_result WHERE run_id = ?", [id])) as { result: unknown }[];
+    const stored = typeof rows[0].result === "string" ? rows[0].result : JSON.stringify(rows[0].result);
+    const pool = createEmbeddedDispatcher({ size: 1 });
+    try {
+      expect(stored).toBe(JSON.stringify(toStoredResult(await pool.runMonteCarlo(run.netlist, run.limits, run.options as unknown as RunOptions))));
+    } finally {
+      await pool.close();
+    }
+    expect(chunksOf()).toHaveLength(20);
+    expect(new Set(chunksOf()).size).toBe(20);
+    console.log(`server stopped (SIGTERM) after ${atStop} of 20 chunks; the next server used the chunks in Redis: 20 computed in all, result identical`);
+  }, 120_000);
 });

@@ -26,8 +26,9 @@ let distributed: Side;
 let dispatcher: DistributedDispatcher | null = null;
 const log = recordingLogger();
 const workers: WorkerProcess[] = [];
-// Every worker of this file fails the chunks of seed 4242 from trial 5000 on (test-only hook of workers/trials.worker.ts).
-const FAULT_ENV = { LOTWISE_TEST_WORKER_FAULT: "throw:4242:5000" };
+// Every worker of this file fails the chunks of seed 4242 from trial 5000 on, every time (test-only hook of
+// workers/trials.worker.ts), and the first try of the chunks of seed 5151 from trial 5000 on (workers/queue-worker.ts).
+const FAULT_ENV = { LOTWISE_TEST_WORKER_FAULT: "throw:4242:5000", LOTWISE_TEST_CHUNK_FAULT: "failfirst:5151:5000" };
 
 async function side(t: TestContext): Promise<Side> {
   const { agent, user } = await t.signedInAgent(["analyst"]);
@@ -148,6 +149,16 @@ describe("distributed mode: same seed, same stored result", () => {
     // The inputs stay stored, and the embedded side computes the same seed (its pool has no fault hook set).
     expect(run.netlist).toEqual(LOWPASS);
     expect(run.options).toMatchObject({ trials: 12_000, seed: 4242 });
+  }, 90_000);
+
+  it("a chunk whose first try fails is retried, and the run ends with the same result as embedded mode", async () => {
+    const { a, b, runB } = await sameRunBothWays({ trials: 12_000, seed: 5151 });
+    expect(b).toBe(a);
+    const failedTries = workers.flatMap((w) => [...w.output().matchAll(/"event":"chunk_failed","worker":"[^"]*","jobId":"([^"]+)","attempt":(\d+)/g)])
+      .filter((m) => m[1].startsWith(`${runB.id}.`));
+    expect(failedTries.map((m) => m[1].slice(runB.id.length + 1)).sort()).toEqual(["10000.2000", "5000.2500", "7500.2500"]);
+    expect(failedTries.every((m) => m[2] === "1")).toBe(true);
+    expect(workers.flatMap((w) => chunksOf(w, runB.id))).toHaveLength(5); // each chunk finished once
   }, 90_000);
 
   it("health tells the dispatch mode and how many worker processes are connected", async () => {
