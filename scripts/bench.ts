@@ -26,6 +26,7 @@ import { buildFrequencyGrid } from "../shared/engine/frequency-grid";
 import { synthesizeLadder } from "../shared/engine/synthesis/index";
 import { createTrialPool } from "../server/engine/trial-pool";
 import { denseSweep } from "../tests/oracles/dense-solver";
+import { Redis } from "ioredis";
 import { startRedis, type RedisServer } from "./redis";
 import { createDistributedDispatcher, type DistributedDispatcher } from "../server/engine/distributed-dispatcher";
 import { toStoredResult } from "../server/services/run-queue";
@@ -223,6 +224,15 @@ async function benchDistributed(pool1: ReturnType<typeof createTrialPool>): Prom
     }
     console.log(`  ${"embedded pool, 1 thread".padEnd(24)}${embedded.secs.toFixed(2).padStart(6)} s  ${rate(embedded.secs).padStart(24)}  1 process / embedded ${(embedded.secs / rows[0].secs).toFixed(2)}× (the queue's overhead: time ${overhead >= 0 ? "+" : "−"}${Math.abs(overhead).toFixed(0)} %)`);
     console.log(`  same result (stored JSON) in all ${results.length} runs, 1, 2, 3 processes and embedded: ${same ? "yes" : "NO"}; yield ${(100 * embedded.res.yield).toFixed(2)} %`);
+    const info = new Redis(url);
+    try {
+      const mem = await info.info("memory");
+      const field = (name: string) => Number(new RegExp(`^${name}:(\\d+)`, "m").exec(mem)?.[1]);
+      const keys = await info.dbsize();
+      console.log(`  Redis: peak memory ${(field("used_memory_peak") / 2 ** 20).toFixed(1)} MiB during these runs, ${(field("used_memory") / 2 ** 20).toFixed(1)} MiB and ${keys} keys after them (finished batches removed)`);
+    } finally {
+      info.disconnect();
+    }
     const cores = os.availableParallelism();
     console.log(`  Note: this machine has ${cores} core${cores === 1 ? "" : "s"}, shared by this process (dispatcher and merging), Redis and the workers, so more than ${cores} worker process${cores === 1 ? "" : "es"} cannot run faster here;`);
     console.log("  the ratios show the queue's overhead and scaling up to the core count, not what worker processes on more hosts would give.");
