@@ -12,7 +12,7 @@
  *                           that dies stops renewing; after this long, plus at most LOTWISE_STALLED_CHECK_MS
  *                           (default 5000), another worker's stalled-job check puts the chunk back and it is
  *                           run again. Every worker of one queue should use the same values.
- * SIGTERM or SIGINT: stops taking chunks, finishes the running ones, exits 0.
+ * SIGTERM or SIGINT: stops taking chunks, gives the running ones 30 s to finish, exits 0.
  */
 import os from "node:os";
 import { Worker } from "bullmq";
@@ -103,7 +103,10 @@ async function stop(signal: string): Promise<void> {
   if (stopping) return;
   stopping = true;
   log.info("worker_stopping", { worker: name, signal, chunksDone });
-  await worker.close();
+  // Running chunks get 30 s to finish (their results need Redis); after that, or while Redis is away, stop anyway:
+  // a chunk left unfinished comes back to the queue when its lock runs out.
+  const finished = await Promise.race([worker.close().then(() => true), new Promise<boolean>((r) => setTimeout(() => r(false), 30_000).unref())]);
+  if (!finished) await Promise.race([worker.close(true), new Promise((r) => setTimeout(r, 2000).unref())]);
   await pool.close();
   process.exit(0);
 }

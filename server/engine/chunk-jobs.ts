@@ -61,9 +61,12 @@ export function unpackChunkResult(value: unknown): TrialAggregate {
  * "producer": commands fail at once while it is away, so the server notices an outage instead of hanging.
  */
 export function redisConnection(url: string, role: "worker" | "producer"): ConnectionOptions {
+  // TCP keep-alive every 10 s, so a link that was cut (a host unplugged, a network partition) is noticed and
+  // reconnected rather than waited on.
+  const common = { url, keepAlive: 10_000, retryStrategy: (times: number) => Math.min(100 * times, 2000) };
   return role === "worker"
-    ? { url, maxRetriesPerRequest: null, retryStrategy: (times: number) => Math.min(100 * times, 2000) }
-    : { url, maxRetriesPerRequest: 1, enableOfflineQueue: false, commandTimeout: 5000, retryStrategy: (times: number) => Math.min(100 * times, 2000) };
+    ? { ...common, maxRetriesPerRequest: null }
+    : { ...common, maxRetriesPerRequest: 1, enableOfflineQueue: false, commandTimeout: 5000 };
 }
 
 /** The URL without its password or query (ioredis also reads `?password=`), for messages and logs. */

@@ -159,42 +159,51 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
     async function onePass(gen: number): Promise<void> {
       const current = () => gen === pass && !signal.aborted && !closed;
       if (!added) {
-        // A batch left by an earlier start of this run is reused, unless it failed (then it is tried afresh).
+        // A batch left by an earlier start of this run is reused, unless a chunk of it failed for good (BullMQ marks
+        // the parent with a deferred failure, as no worker takes parents): then it is tried afresh.
         const old = await batches.getJob(parentId);
-        const reuse = old !== undefined && (await old.getState()) !== "failed";
+        const reuse = old !== undefined && !old.deferredFailure && (await old.getState()) !== "failed";
+        if (!current()) return;
         if (old && !reuse) await old.remove(); // "locked" while a chunk of it still runs: tried again next pass
         if (!current()) return;
         if (!reuse) await flows.add(flow());
         added = true;
       }
       const sweep = Date.now() - lastSweep >= pollMs;
+      if (sweep) lastSweep = Date.now();
       const look = sweep ? [...open] : [...poked].filter((id) => open.has(id));
       poked.clear();
       const missing: string[] = [];
-      for (const id of look) {
-        // The state first, then (once completed, which it stays) the job with its return value: a job read first
-        // could complete between the two reads and show no return value yet.
-        const state = await chunks.getJobState(id);
-        if (state === "unknown") {
-          missing.push(id);
-          continue;
-        }
-        if (state !== "completed" && state !== "failed") continue;
-        const job = await chunks.getJob(id);
+      // States are asked 100 at a time (sent together), so a 400-chunk run is a handful of round trips per sweep.
+      for (let k = 0; k < look.length; k += 100) {
+        const slice = look.slice(k, k + 100);
+        const states = await Promise.all(slice.map((id) => chunks.getJobState(id)));
         if (!current()) return;
-        if (!job) {
-          missing.push(id);
-        } else if (state === "completed" && open.has(id)) {
-          const agg = unpackChunkResult(job.returnvalue);
-          open.delete(id);
-          accept(agg);
-        } else if (state === "failed") {
-          const r = rangeOf.get(id)!;
-          throw new WorkerFailure(`A worker failed on trials ${r.start}..${r.start + r.count - 1} (${job.attemptsMade} tries): ${job.failedReason}`);
+        for (let j = 0; j < slice.length; j++) {
+          const id = slice[j];
+          const state = states[j];
+          if (state === "unknown") {
+            missing.push(id);
+            continue;
+          }
+          if (state !== "completed" && state !== "failed") continue;
+          // The state first, then (once completed, which it stays) the job with its return value: a job read first
+          // could complete between the two reads and show no return value yet.
+          const job = await chunks.getJob(id);
+          if (!current()) return;
+          if (!job) {
+            missing.push(id);
+          } else if (state === "completed" && open.has(id)) {
+            const agg = unpackChunkResult(job.returnvalue);
+            open.delete(id);
+            accept(agg);
+          } else if (state === "failed") {
+            const r = rangeOf.get(id)!;
+            throw new WorkerFailure(`A worker failed on trials ${r.start}..${r.start + r.count - 1} (${job.attemptsMade} tries): ${job.failedReason}`);
+          }
         }
       }
       if (open.size === 0 || !sweep) return;
-      lastSweep = Date.now();
       const gone = missing.filter((id) => open.has(id));
       if (gone.length > 0) {
         // Redis lost these chunks (restarted without its data, or an earlier clean-up removed them): add them again.
@@ -205,6 +214,7 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
         else await flows.add(flow(gone));
       }
       const workers = await workerCount();
+      if (!current()) return;
       noWorkersSince = workers !== 0 ? null : (noWorkersSince ?? Date.now());
       if (noWorkersSince !== null && Date.now() - noWorkersSince > noWorkersMs) {
         throw new WorkerFailure(`No Lotwise worker process has been connected to Redis at ${where} for ${Math.round(noWorkersMs / 1000)} s (start one with \`npm run worker\`)`, { code: "NO_WORKERS" });
@@ -351,13 +361,16 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
  */
 function within<T>(p: Promise<T>, ms: number, signal: AbortSignal): Promise<T> {
   return new Promise<T>((resolve, reject) => {
-    const timer = setTimeout(() => reject(new RedisTimeout(`no answer from Redis within ${ms} ms`)), ms);
-    const onAbort = () => reject(new EngineError("CANCELLED", "run cancelled"));
-    signal.addEventListener("abort", onAbort, { once: true });
-    p.then(resolve, reject).finally(() => {
+    const settle = (fn: () => void) => {
       clearTimeout(timer);
       signal.removeEventListener("abort", onAbort);
-    });
+      fn();
+    };
+    const timer = setTimeout(() => settle(() => reject(new RedisTimeout(`no answer from Redis within ${ms} ms`))), ms);
+    timer.unref();
+    const onAbort = () => settle(() => reject(new EngineError("CANCELLED", "run cancelled")));
+    signal.addEventListener("abort", onAbort, { once: true });
+    p.then((v) => settle(() => resolve(v)), (e: unknown) => settle(() => reject(e)));
   });
 }
 

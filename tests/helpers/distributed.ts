@@ -83,15 +83,15 @@ export interface WorkerProcess {
 }
 
 /**
- * Starts one worker process on `redisUrl` with `threads` trial threads (default 1), short locks (2 s, stalled check
- * every 0.5 s) so a killed worker's chunk comes back within seconds. `netns` runs it inside that network namespace.
+ * Starts one worker process on `redisUrl` with `threads` trial threads (default 1), short locks (4 s, renewed every 2 s,
+ * stalled check every 0.5 s) so a killed worker's chunk comes back within seconds. `netns` runs it inside that network namespace.
  * Resolves once it has logged worker_ready.
  */
 export async function startWorker(redisUrl: string, name: string, options: { threads?: number; env?: Record<string, string>; netns?: string } = {}): Promise<WorkerProcess> {
   const args = ["--import", "tsx", "workers/queue-worker.ts"];
   const env = {
     ...process.env, NODE_ENV: "test", LOTWISE_REDIS_URL: redisUrl, LOTWISE_WORKER_NAME: name, LOTWISE_WORKER_THREADS: String(options.threads ?? 1),
-    LOTWISE_CHUNK_LOCK_MS: "2000", LOTWISE_STALLED_CHECK_MS: "500", LOTWISE_LOG_LEVEL: "info", ...options.env,
+    LOTWISE_CHUNK_LOCK_MS: "4000", LOTWISE_STALLED_CHECK_MS: "500", LOTWISE_LOG_LEVEL: "info", ...options.env,
   };
   const child = options.netns
     ? spawn("ip", ["netns", "exec", options.netns, process.execPath, ...args], { env, stdio: ["ignore", "pipe", "pipe"] })

@@ -99,7 +99,7 @@ describe.skipIf(netnsProblem !== null)("distributed mode across network namespac
     const cutAt = Date.now() - t0;
     const aBeforeCut = new Set(ofRun(workerA!, runId));
     const bAtCut = ofRun(workerB!, runId).length;
-    // What A holds when the link goes: it can neither finish nor renew it, so its lock runs out (2 s).
+    // What A holds when the link goes: it can neither finish nor renew it, so its lock runs out (4 s).
     const stranded = (await distributed!.chunks.getActive()).filter((j) => j.processedBy === workerA!.name && j.id?.startsWith(`${runId}.`)).map((j) => j.id!);
 
     const dist = await run;

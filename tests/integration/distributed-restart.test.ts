@@ -67,7 +67,7 @@ describe("distributed mode: server killed mid-run", () => {
     expect(health.dispatch).toMatchObject({ mode: "distributed", workers: 2 });
     const res = await fetch(`${first.origin}/api/runs`, {
       method: "POST", headers: { "content-type": "application/json", origin: first.origin, cookie },
-      body: JSON.stringify({ revisionId: f.revision.id, limitSetId: f.limitSet.id, trials: 50_000, seed: 41 }),
+      body: JSON.stringify({ revisionId: f.revision.id, limitSetId: f.limitSet.id, trials: 100_000, seed: 41 }),
     });
     expect(res.status).toBe(201);
     const id = ((await res.json()) as { run: { id: string } }).run.id;
@@ -95,9 +95,9 @@ describe("distributed mode: server killed mid-run", () => {
       await pool.close();
     }
     const done = chunksOf();
-    expect(done).toHaveLength(20); // 50,000 trials in chunks of 2,500, each once
-    expect(new Set(done).size).toBe(20);
-    console.log(`server killed (SIGKILL) after ${atKill} of 20 chunks; the second server used every chunk in Redis: 20 computed in all, result identical`);
+    expect(done).toHaveLength(40); // 100,000 trials in chunks of 2,500, each once
+    expect(new Set(done).size).toBe(40);
+    console.log(`server killed (SIGKILL) after ${atKill} of 40 chunks; the second server used every chunk in Redis: 40 computed in all, result identical`);
   }, 120_000);
 
   it("a clean stop (SIGTERM) mid-run leaves the run's chunks in Redis: the next server uses them, the result unchanged", async () => {
@@ -105,7 +105,7 @@ describe("distributed mode: server killed mid-run", () => {
     const cookie = await signInCookie(current.origin, user.email, PASSWORD);
     const res = await fetch(`${current.origin}/api/runs`, {
       method: "POST", headers: { "content-type": "application/json", origin: current.origin, cookie },
-      body: JSON.stringify({ revisionId: f.revision.id, limitSetId: f.limitSet.id, trials: 50_000, seed: 42 }),
+      body: JSON.stringify({ revisionId: f.revision.id, limitSetId: f.limitSet.id, trials: 100_000, seed: 42 }),
     });
     expect(res.status).toBe(201);
     const id = ((await res.json()) as { run: { id: string } }).run.id;
@@ -131,8 +131,8 @@ describe("distributed mode: server killed mid-run", () => {
     } finally {
       await pool.close();
     }
-    expect(chunksOf()).toHaveLength(20);
-    expect(new Set(chunksOf()).size).toBe(20);
-    console.log(`server stopped (SIGTERM) after ${atStop} of 20 chunks; the next server used the chunks in Redis: 20 computed in all, result identical`);
+    expect(chunksOf()).toHaveLength(40);
+    expect(new Set(chunksOf()).size).toBe(40);
+    console.log(`server stopped (SIGTERM) after ${atStop} of 40 chunks; the next server used the chunks in Redis: 40 computed in all, result identical`);
   }, 120_000);
 });
