@@ -3,6 +3,14 @@
  * kill it: the same start-up as `npm start`'s server (settings from the environment, migrations, run queue).
  */
 import { spawn, type ChildProcess } from "node:child_process";
+import { randomBytes, randomUUID } from "node:crypto";
+import mysql from "mysql2/promise";
+import type { DataSource } from "typeorm";
+import { hashPassword } from "../../server/auth/passwords";
+import { loadConfig } from "../../server/config/env";
+import { createDataSource, openAndMigrate } from "../../server/db/data-source";
+import { User } from "../../server/entities";
+import type { Role } from "../../shared/roles";
 import { freePort, until } from "./distributed";
 
 export interface ServerProcess {
@@ -50,4 +58,37 @@ export async function signInCookie(origin: string, email: string, password: stri
   });
   if (res.status !== 200) throw new Error(`sign-in answered ${res.status}: ${await res.text()}`);
   return res.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+}
+
+/** A scratch database on the test MariaDB for server processes: created and migrated, one account in it; drop() removes it. */
+export interface ScratchDatabase {
+  dbName: string;
+  ds: DataSource;
+  user: User;
+  drop(): Promise<void>;
+}
+
+export async function createScratchDatabase(prefix: string, person: { email: string; name: string; roles: Role[]; password: string }): Promise<ScratchDatabase> {
+  if (!process.env.LOTWISE_TEST_DB_READY) throw new Error("run through `npm test`");
+  const base = loadConfig(process.env);
+  const dbName = `${prefix}_${process.pid}_${randomBytes(3).toString("hex")}`;
+  const admin = await mysql.createConnection({ host: base.db.host, port: base.db.port, user: base.db.user, password: base.db.password });
+  await admin.query(`CREATE DATABASE \`${dbName}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
+  await admin.end();
+  const ds = createDataSource({ ...base.db, name: dbName }, { poolSize: 3 });
+  await openAndMigrate(ds);
+  const user = ds.getRepository(User).create({
+    id: randomUUID(), email: person.email, name: person.name, roles: person.roles, active: true, passwordHash: await hashPassword(person.password),
+  });
+  await ds.getRepository(User).insert(user);
+  return {
+    dbName,
+    ds,
+    user,
+    async drop() {
+      if (!ds.isInitialized) return;
+      await ds.query(`DROP DATABASE \`${dbName}\``);
+      await ds.destroy();
+    },
+  };
 }

@@ -1,16 +1,11 @@
 import type { ChildProcess } from "node:child_process";
-import { randomBytes, randomUUID } from "node:crypto";
-import mysql from "mysql2/promise";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { hashPassword } from "../../server/auth/passwords";
-import { loadConfig } from "../../server/config/env";
-import { createDataSource, openAndMigrate } from "../../server/db/data-source";
 import { createTrialPool } from "../../server/engine/trial-pool";
 import { Run, RunResultRow, User } from "../../server/entities";
 import { toStoredResult } from "../../server/services/run-queue";
 import type { RunOptions } from "../../shared/engine/run-options";
 import { until } from "../helpers/distributed";
-import { signInCookie, startServerProcess } from "../helpers/server-process";
+import { createScratchDatabase, signInCookie, startServerProcess, type ScratchDatabase } from "../helpers/server-process";
 import type { TestContext } from "../helpers/test-context";
 import { makeRunFixture, type RunFixture } from "./access-samples/runs";
 
@@ -20,16 +15,14 @@ import { makeRunFixture, type RunFixture } from "./access-samples/runs";
 // gives (the interrupted one is re-run from its stored netlist, limits, options and seed). Nothing accepted is lost.
 
 const PASSWORD = "correct horse battery staple";
-const base = loadConfig(process.env);
-const dbName = `lotwise_kill_${process.pid}_${randomBytes(3).toString("hex")}`;
-const dbConfig = { ...base.db, name: dbName };
-const ds = createDataSource(dbConfig, { poolSize: 3 });
+let db: ScratchDatabase;
+let ds: ScratchDatabase["ds"];
 const children = new Set<ChildProcess>();
 let user: User;
 let f: RunFixture;
 
 const startServer = async () => {
-  const server = await startServerProcess(dbName);
+  const server = await startServerProcess(db.dbName);
   children.add(server.child);
   server.child.once("exit", () => children.delete(server.child));
   return server;
@@ -37,24 +30,14 @@ const startServer = async () => {
 const signIn = (origin: string) => signInCookie(origin, user.email, PASSWORD);
 
 beforeAll(async () => {
-  if (!process.env.LOTWISE_TEST_DB_READY) throw new Error("run through `npm test`");
-  const admin = await mysql.createConnection({ host: base.db.host, port: base.db.port, user: base.db.user, password: base.db.password });
-  await admin.query(`CREATE DATABASE \`${dbName}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
-  await admin.end();
-  await openAndMigrate(ds);
-  user = ds.getRepository(User).create({
-    id: randomUUID(), email: "restart@lotwise.test", name: "Restart Tester", roles: ["designer"], active: true, passwordHash: await hashPassword(PASSWORD),
-  });
-  await ds.getRepository(User).insert(user);
+  db = await createScratchDatabase("lotwise_kill", { email: "restart@lotwise.test", name: "Restart Tester", roles: ["designer"], password: PASSWORD });
+  ({ ds, user } = db);
   f = await makeRunFixture({ ctx: { dataSource: ds } } as unknown as TestContext, user, { name: "Restart low-pass" });
 }, 30_000);
 
 afterAll(async () => {
   for (const c of children) c.kill("SIGKILL");
-  if (ds.isInitialized) {
-    await ds.query(`DROP DATABASE \`${dbName}\``);
-    await ds.destroy();
-  }
+  await db?.drop();
 }, 30_000);
 
 describe("server killed mid-run", () => {
