@@ -6,6 +6,7 @@ import { spawn, type ChildProcess } from "node:child_process";
 import { rmSync } from "node:fs";
 import { createServer } from "node:net";
 import { startRedis, type RedisServer } from "../../scripts/redis";
+import type { DataSource } from "typeorm";
 import type { Logger } from "../../server/logger";
 
 export const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
@@ -125,6 +126,13 @@ export async function startWorker(redisUrl: string, name: string, options: { thr
       clearTimeout(timer);
     },
   };
+}
+
+/** A run's stored result as MariaDB returns it (text), for byte-for-byte comparisons. */
+export async function storedResultText(ds: DataSource, runId: string): Promise<string> {
+  const rows = (await ds.query("SELECT result FROM run_result WHERE run_id = ?", [runId])) as { result: unknown }[];
+  if (rows.length !== 1) throw new Error(`run ${runId} has ${rows.length} stored results`);
+  return typeof rows[0].result === "string" ? rows[0].result : JSON.stringify(rows[0].result);
 }
 
 /** A logger that keeps every line (event and fields) for assertions. */

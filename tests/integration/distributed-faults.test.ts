@@ -5,7 +5,7 @@ import { Run } from "../../server/entities";
 import { toStoredResult } from "../../server/services/run-queue";
 import type { RunOptions } from "../../shared/engine/run-options";
 import { WorkerFailure } from "../../server/engine/trial-pool";
-import { freePort, recordingLogger, sleep, startTestRedis, startWorker, until, type WorkerProcess } from "../helpers/distributed";
+import { freePort, recordingLogger, sleep, startTestRedis, storedResultText, startWorker, until, type WorkerProcess } from "../helpers/distributed";
 import { createTestContext, ORIGIN, type TestContext } from "../helpers/test-context";
 import { makeRunFixture, type RunFixture } from "./access-samples/runs";
 
@@ -44,8 +44,7 @@ const finished = (id: string, ms = 60_000) =>
 /** The stored result equals an undisturbed embedded run of the run's own stored inputs, as text. */
 async function expectReferenceResult(run: Run): Promise<void> {
   expect(run.state, `${run.errorCode}: ${run.errorMessage}`).toBe("done");
-  const rows = (await t.ctx.dataSource.query("SELECT result FROM run_result WHERE run_id = ?", [run.id])) as { result: unknown }[];
-  const stored = typeof rows[0].result === "string" ? rows[0].result : JSON.stringify(rows[0].result);
+  const stored = await storedResultText(t.ctx.dataSource, run.id);
   const ref = await reference.runMonteCarlo(run.netlist, run.limits, run.options as unknown as RunOptions);
   expect(stored).toBe(JSON.stringify(toStoredResult(ref)));
 }

@@ -3,7 +3,7 @@ import { createEmbeddedDispatcher } from "../../server/engine/dispatcher";
 import { Run, User } from "../../server/entities";
 import { toStoredResult } from "../../server/services/run-queue";
 import type { RunOptions } from "../../shared/engine/run-options";
-import { startTestRedis, startWorker, until, type WorkerProcess } from "../helpers/distributed";
+import { startTestRedis, startWorker, storedResultText, until, type WorkerProcess } from "../helpers/distributed";
 import { createScratchDatabase, signInCookie, startServerProcess, type ScratchDatabase, type ServerProcess } from "../helpers/server-process";
 import type { TestContext } from "../helpers/test-context";
 import { makeRunFixture, type RunFixture } from "./access-samples/runs";
@@ -70,8 +70,7 @@ async function interruptAndResume(signal: "SIGKILL" | "SIGTERM", seed: number): 
     return ["done", "failed", "cancelled"].includes(r.state) ? r : null;
   }, 60_000);
   expect(run.state, `${run.errorCode}: ${run.errorMessage}`).toBe("done");
-  const rows = (await ds.query("SELECT result FROM run_result WHERE run_id = ?", [id])) as { result: unknown }[];
-  const stored = typeof rows[0].result === "string" ? rows[0].result : JSON.stringify(rows[0].result);
+  const stored = await storedResultText(ds, id);
   const pool = createEmbeddedDispatcher({ size: 1 });
   try {
     expect(stored).toBe(JSON.stringify(toStoredResult(await pool.runMonteCarlo(run.netlist, run.limits, run.options as unknown as RunOptions))));

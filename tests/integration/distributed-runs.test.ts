@@ -5,7 +5,7 @@ import { createDistributedDispatcher, EVENTS_KEPT, type DistributedDispatcher } 
 import { Run } from "../../server/entities";
 import { toStoredResult } from "../../server/services/run-queue";
 import type { RunOptions } from "../../shared/engine/run-options";
-import { recordingLogger, startTestRedis, startWorker, until, type WorkerProcess } from "../helpers/distributed";
+import { recordingLogger, startTestRedis, storedResultText, startWorker, until, type WorkerProcess } from "../helpers/distributed";
 import { createTestContext, ORIGIN, type TestContext } from "../helpers/test-context";
 import { LOWPASS, LOWPASS_LIMITS, LOWPASS_SWEEP, makeRunFixture, type RunFixture } from "./access-samples/runs";
 
@@ -50,9 +50,7 @@ async function finished(s: Side, id: string, ms = 60_000): Promise<Run> {
 
 /** The stored result as MariaDB returns it (text), for a byte-for-byte comparison. */
 async function storedText(s: Side, id: string): Promise<string> {
-  const rows = (await s.t.ctx.dataSource.query("SELECT result FROM run_result WHERE run_id = ?", [id])) as { result: unknown }[];
-  expect(rows).toHaveLength(1);
-  return typeof rows[0].result === "string" ? rows[0].result : JSON.stringify(rows[0].result);
+  return storedResultText(s.t.ctx.dataSource, id);
 }
 
 /** Launches the same run on both sides and returns both stored texts and the distributed run. */
