@@ -29,6 +29,10 @@ export const ERROR_CODES = {
   GRADE_EXISTS: 409,
   // runs, run queue and exports (engineer H1): cancelling a run that has already ended
   RUN_FINISHED: 409,
+  // trust: compute limits, exports of runs that are not done, exports past their time budget
+  RUN_TOO_COSTLY: 400,
+  RUN_NOT_DONE: 409,
+  EXPORT_TIMEOUT: 503,
 } as const;
 
 export type ErrorCode = keyof typeof ERROR_CODES;

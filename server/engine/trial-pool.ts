@@ -8,17 +8,19 @@
  * its worker thread exited or threw a plain Error; the pool keeps serving other runs (piscina replaces
  * a crashed thread). Cancellation: an AbortSignal aborts the run's queued and running tasks.
  */
+import { randomUUID } from "node:crypto";
 import { setMaxListeners } from "node:events";
 import os from "node:os";
 import { Piscina } from "piscina";
 import { decodeAggregate, type TrialAggregate } from "../../shared/engine/aggregate";
 import { EngineError } from "../../shared/engine/errors";
-import { driveRun, validateChunkSize, type ChunkTask } from "../../shared/engine/monte-carlo";
+import { costBoundedChunkSize, driveRun, validateChunkSize, type ChunkTask } from "../../shared/engine/monte-carlo";
 import type { Netlist } from "../../shared/engine/netlist";
 import type { RunResult } from "../../shared/engine/result";
 import type { RunOptions } from "../../shared/engine/run-options";
 import { planRun } from "../../shared/engine/run-plan";
 import { createLogger, type Logger } from "../logger";
+import { createFairGate } from "./fair-gate";
 import { deserializeEngineError } from "../../shared/engine/task-errors";
 import type { TrialsWorkerResult } from "../../workers/trials.worker";
 
@@ -100,15 +102,25 @@ export function createTrialPool(options: TrialPoolOptions = {}): TrialPool {
   const log = options.log ?? createLogger();
   piscina.on("error", (err: Error) => log.warn("trial_pool_stray_error", { message: String(err?.message ?? err).slice(0, 300) }));
 
-  /** One chunk on the pool (piscina runs one task per thread at a time: a thread's death takes only its own chunk). */
-  async function runChunk(base: Omit<ChunkTask, "start" | "count">, chunk: { start: number; count: number }, signal?: AbortSignal): Promise<TrialAggregate> {
+  const gate = createFairGate(size);
+
+  /**
+   * One chunk on the pool (piscina runs one task per thread at a time: a thread's death takes only its own chunk).
+   * The chunk first waits for a thread at the fair gate under its run's `key`, so runs executing at once share the
+   * threads (fair-gate.ts) instead of queuing behind each other's chunks.
+   */
+  async function runChunk(base: Omit<ChunkTask, "start" | "count">, chunk: { start: number; count: number }, signal?: AbortSignal, share?: { key: string; perTrialCost: number }): Promise<TrialAggregate> {
     let out: TrialsWorkerResult;
+    let release: (() => void) | null = null;
     try {
+      if (share) release = await gate.acquire(share.key, chunk.count * share.perTrialCost, signal);
       out = await piscina.run({ ...base, ...chunk }, { signal });
     } catch (err) {
       if (signal?.aborted || (err as Error)?.name === "AbortError") throw new EngineError("CANCELLED", "run cancelled");
       const message = err instanceof Error ? err.message : String(err);
       throw new WorkerFailure(`A worker failed on trials ${chunk.start}..${chunk.start + chunk.count - 1}: ${message}`, { cause: err });
+    } finally {
+      release?.();
     }
     if (out instanceof Uint8Array) return decodeAggregate(out);
     throw deserializeEngineError(out.error);
@@ -133,6 +145,7 @@ export function createTrialPool(options: TrialPoolOptions = {}): TrialPool {
       // Validate and plan here too: bad input fails fast with its coded error, and finalizing needs the plan.
       const plan = planRun(netlist, limits, runOptions);
       const base = { netlist, limits, options: runOptions };
+      const share = { key: randomUUID(), perTrialCost: plan.options.corners.length * plan.grid.freqs.length * plan.sampling.partCount };
       const local = new AbortController();
       setMaxListeners(0, local.signal); // one listener per queued chunk task
       const abort = () => local.abort();
@@ -143,9 +156,9 @@ export function createTrialPool(options: TrialPoolOptions = {}): TrialPool {
           plan,
           async (chunks, accept) => {
             // Promise.all rejects on the first failing chunk; the catch below then aborts the rest.
-            await Promise.all(chunks.map((c) => runChunk(base, c, local.signal).then(accept)));
+            await Promise.all(chunks.map((c) => runChunk(base, c, local.signal, share).then(accept)));
           },
-          { chunkSize: chunkSizeFor(plan.options, controls.chunkSize ?? defaultChunk, size), onProgress: controls.onProgress, cancel: local.signal },
+          { chunkSize: chunkSizeFor(plan.options, costBoundedChunkSize(plan, controls.chunkSize ?? defaultChunk), size), onProgress: controls.onProgress, cancel: local.signal },
         );
       } catch (err) {
         local.abort(); // drop this run's queued chunks
@@ -153,6 +166,7 @@ export function createTrialPool(options: TrialPoolOptions = {}): TrialPool {
         throw err;
       } finally {
         controls.signal?.removeEventListener("abort", abort);
+        gate.forget(share.key);
       }
     },
     runChunk: (task, signal) => runChunk(task, { start: task.start, count: task.count }, signal),

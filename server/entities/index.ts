@@ -1,3 +1,4 @@
+import { AppSetting } from "./app-setting.entity";
 import { DesignRevision } from "./design-revision.entity";
 import { Design } from "./design.entity";
 import { GradeSweep } from "./grade-sweep.entity";
@@ -14,7 +15,7 @@ import { Run } from "./run.entity";
 import { Session } from "./session.entity";
 import { User } from "./user.entity";
 
-export { Design, DesignRevision, Grade, GradeSweep, Invitation, LimitSet, MeasuredResponse, OutboxMessage, PasswordReset, ReviewEvent, Run, RunComment, RunResultRow, Session, User };
+export { AppSetting, Design, DesignRevision, Grade, GradeSweep, Invitation, LimitSet, MeasuredResponse, OutboxMessage, PasswordReset, ReviewEvent, Run, RunComment, RunResultRow, Session, User };
 
 /** Every entity, for the DataSource. */
-export const entities = [User, Session, Invitation, PasswordReset, OutboxMessage, Design, DesignRevision, LimitSet, Grade, Run, RunResultRow, RunComment, ReviewEvent, MeasuredResponse, GradeSweep];
+export const entities = [User, Session, Invitation, PasswordReset, OutboxMessage, Design, DesignRevision, LimitSet, Grade, Run, RunResultRow, RunComment, ReviewEvent, MeasuredResponse, GradeSweep, AppSetting];

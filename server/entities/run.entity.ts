@@ -3,6 +3,7 @@ import type { Limits } from "../../shared/engine/limits";
 import type { Netlist } from "../../shared/engine/netlist";
 import { DesignRevision } from "./design-revision.entity";
 import { Design } from "./design.entity";
+import { GradeSweep } from "./grade-sweep.entity";
 import { User } from "./user.entity";
 
 export const RUN_STATES = ["queued", "running", "done", "failed", "cancelled"] as const;
@@ -94,6 +95,13 @@ export class Run {
   @Column({ name: "finished_at", type: "datetime", precision: 3, nullable: true, default: null })
   finishedAt: Date | null;
 
+  /** How often the run was interrupted (server stopped or killed while it ran) and queued again to run from its seed. */
+  @Column({ type: "int", default: 0 })
+  interruptions: number;
+
+  @Column({ name: "last_interrupted_at", type: "datetime", precision: 3, nullable: true, default: null })
+  lastInterruptedAt: Date | null;
+
   // relations
   @ManyToOne(() => Design, { onDelete: "CASCADE" })
   @JoinColumn({ name: "design_id", foreignKeyConstraintName: "FK_RUN_DESIGN" })
@@ -102,6 +110,10 @@ export class Run {
   @ManyToOne(() => DesignRevision, { onDelete: "RESTRICT" })
   @JoinColumn({ name: "revision_id", foreignKeyConstraintName: "FK_RUN_REVISION" })
   revision: Relation<DesignRevision>;
+
+  @ManyToOne(() => GradeSweep, { onDelete: "SET NULL" })
+  @JoinColumn({ name: "sweep_id", foreignKeyConstraintName: "FK_RUN_SWEEP" })
+  sweep: Relation<GradeSweep> | null;
 
   @ManyToOne(() => User, { onDelete: "RESTRICT" })
   @JoinColumn({ name: "launched_by_id", foreignKeyConstraintName: "FK_RUN_LAUNCHED_BY" })

@@ -1,5 +1,6 @@
 import { Foundation1764633600000 } from "./1764633600000-foundation";
 import { Workflow1764640800000 } from "./1764640800000-workflow";
+import { Trust1764892800000 } from "./1764892800000-trust";
 
 /** Every migration in order. Listed by hand so tsx, vitest and the CLI load the same classes (no glob imports). */
-export const migrations = [Foundation1764633600000, Workflow1764640800000];
+export const migrations = [Foundation1764633600000, Workflow1764640800000, Trust1764892800000];

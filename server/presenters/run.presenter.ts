@@ -38,6 +38,9 @@ export function presentRunSummary(run: RunWithRelations, extras: RunSummaryExtra
     errorMessage: run.errorMessage,
     bomCost: run.bomCost,
     lotSize: run.lotSize,
+    /** times the run was interrupted by a server stop and run again from its seed (the result is the same) */
+    interruptions: run.interruptions ?? 0,
+    lastInterruptedAt: run.lastInterruptedAt?.toISOString() ?? null,
   };
 }
 

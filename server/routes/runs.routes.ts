@@ -1,9 +1,11 @@
 import type { Response } from "express";
 import type { AppContext } from "../context";
-import { Run, RunResultRow } from "../entities";
+import { Run } from "../entities";
 import { AppError } from "../errors";
 import { presentRunSummary } from "../presenters/run.presenter";
-import { checkTrialIndex, presentTrialReplay, runTouchstone, streamTrialsCsv, trialCountOf } from "../services/run-exports";
+import {
+  checkTrialIndex, exportSignal, planTrialsCsv, requireDone, runTouchstone, trialCountOf, trialReplay, trialsCsvHeader, trialsCsvRows,
+} from "../services/run-exports";
 import type { RunEvent } from "../services/run-queue";
 import { createRun, findRun, runDetail } from "../services/runs";
 import { createRunSchema } from "../../shared/schemas/run-request";
@@ -11,12 +13,25 @@ import { ApiRouter } from "./api-router";
 
 const LAUNCHERS = ["designer", "planner", "analyst"] as const;
 const FINISHED = new Set(["done", "failed", "cancelled"]);
-/** SSE progress cadence (ms). */
-const SSE_INTERVAL_MS = 500;
+/** SSE tick (ms): session check and a narrow read of the run row (progress itself comes from the queue's events). */
+const SSE_TICK_MS = 2000;
 
-async function storedResult(ctx: AppContext, run: Run): Promise<Record<string, unknown> | null> {
-  if (run.state !== "done") return null;
-  return (await ctx.dataSource.getRepository(RunResultRow).findOneBy({ runId: run.id }))?.result ?? null;
+/** Waits until the socket takes more (`drain`) or the export stops, with no listener left behind either way. */
+function drained(res: Response, signal: AbortSignal): Promise<void> {
+  return new Promise<void>((resolve, reject) => {
+    const done = () => {
+      res.off("drain", done);
+      signal.removeEventListener("abort", stop);
+      resolve();
+    };
+    const stop = () => {
+      res.off("drain", done);
+      reject(signal.reason);
+    };
+    if (signal.aborted) return stop();
+    res.on("drain", done);
+    signal.addEventListener("abort", stop, { once: true });
+  });
 }
 
 function sendS2p(res: Response, name: string, text: string): void {
@@ -45,12 +60,15 @@ export function runsRoutes(ctx: AppContext): ApiRouter {
     },
   });
 
-  // Server-sent events: `progress` about every 0.5 s while queued or running, then `end` and close.
+  // Server-sent events: `progress` as the queue reports it (at most about twice a second) and on a 2 s tick while
+  // queued or running, then `end` and close. The tick also checks that the session still holds: a person signed out,
+  // deactivated or changed in role stops hearing at once (`end` with state "signed-out").
   api.get("/runs/:id/events", {
     access: "signed-in",
     handler: async ({ req, res }) => {
       const runId = String(req.params.id);
       await findRun(ctx, runId);
+      const sessionId = (res.locals.sessionId as string | null | undefined) ?? null;
       res.status(200);
       res.set({ "Content-Type": "text/event-stream", "Cache-Control": "no-store", Connection: "keep-alive", "X-Accel-Buffering": "no" });
       res.flushHeaders();
@@ -65,20 +83,24 @@ export function runsRoutes(ctx: AppContext): ApiRouter {
         cleanup();
         res.end();
       };
-      const fromDb = async () => {
-        const run = await ctx.dataSource.getRepository(Run).findOneBy({ id: runId });
+      const progressOf = (e: Extract<RunEvent, { type: "progress" }>) => ({ state: e.state, trialsDone: e.trialsDone, trialsTotal: e.trialsTotal, ratePerSecond: e.ratePerSecond, etaSeconds: e.etaSeconds });
+      const tick = async () => {
+        const check = await ctx.sessions.validate(sessionId);
+        if (!check.user) return finish("signed-out");
+        const run = await ctx.dataSource.getRepository(Run).findOne({ where: { id: runId }, select: { id: true, state: true, trialsDone: true, trialsTotal: true } });
         if (!run || FINISHED.has(run.state)) return finish(run?.state ?? "cancelled");
         const live = ctx.runQueue.live(runId);
-        if (live) return send("progress", { state: live.state, trialsDone: live.trialsDone, trialsTotal: live.trialsTotal, ratePerSecond: live.ratePerSecond, etaSeconds: live.etaSeconds });
+        if (live) return send("progress", progressOf(live));
         send("progress", { state: run.state, trialsDone: run.trialsDone, trialsTotal: run.trialsTotal, ratePerSecond: null, etaSeconds: null });
       };
       const onEvent = (e: RunEvent) => {
         if (e.type === "end") finish(e.state);
+        else send("progress", progressOf(e));
       };
       const unsubscribe = ctx.runQueue.subscribe(runId, onEvent);
       // A failed read (the database briefly away) skips a tick: the run survives an outage, so the stream must not
       // report it as failed; the next tick reads again.
-      const timer = setInterval(() => void fromDb().catch(() => undefined), SSE_INTERVAL_MS);
+      const timer = setInterval(() => void tick().catch(() => undefined), SSE_TICK_MS);
       const cleanup = () => {
         clearInterval(timer);
         unsubscribe();
@@ -87,7 +109,7 @@ export function runsRoutes(ctx: AppContext): ApiRouter {
         ended = true;
         cleanup();
       });
-      await fromDb();
+      await tick();
     },
   });
 
@@ -100,11 +122,32 @@ export function runsRoutes(ctx: AppContext): ApiRouter {
     },
   });
 
+  // Exports: computed on the export thread under one signal per request (client gone or time budget spent).
   api.get("/runs/:id/trials.csv", {
     access: "signed-in",
     handler: async ({ req, res }) => {
       const run = await findRun(ctx, String(req.params.id));
-      await streamTrialsCsv(res, run, trialCountOf(run, await storedResult(ctx, run)));
+      const trials = trialCountOf(run, { trials: run.state === "done" ? run.trialsDone : undefined });
+      const slices = await planTrialsCsv(ctx, run, trials);
+      requireDone(run);
+      const exp = await exportSignal(ctx, (abort) => res.once("close", abort));
+      try {
+        res.status(200);
+        res.set("Content-Type", "text/csv; charset=utf-8");
+        res.set("Content-Disposition", `attachment; filename="lotwise-run-${run.id.slice(0, 8)}-trials.csv"`);
+        res.write(trialsCsvHeader(run));
+        for await (const text of trialsCsvRows(ctx, run, trials, slices, exp.signal)) {
+          if (!res.write(text)) await drained(res, exp.signal);
+        }
+        res.end();
+      } catch (err) {
+        if (!exp.signal.aborted) throw err;
+        // Past its budget (or the client left): the download ends short; a partial file must not look complete.
+        if (exp.signal.reason instanceof AppError) ctx.log.warn("export_stopped", { runId: run.id, reason: exp.signal.reason.code, seconds: exp.seconds });
+        res.destroy();
+      } finally {
+        exp.dispose();
+      }
     },
   });
 
@@ -112,7 +155,8 @@ export function runsRoutes(ctx: AppContext): ApiRouter {
     access: "signed-in",
     handler: async ({ req, res }) => {
       const run = await findRun(ctx, String(req.params.id));
-      sendS2p(res, `lotwise-run-${run.id.slice(0, 8)}-nominal.s2p`, runTouchstone(run, null));
+      const text = await withExportSignal(res, (signal) => runTouchstone(ctx, run, null, signal));
+      sendS2p(res, `lotwise-run-${run.id.slice(0, 8)}-nominal.s2p`, text);
     },
   });
 
@@ -121,8 +165,10 @@ export function runsRoutes(ctx: AppContext): ApiRouter {
     access: "signed-in",
     handler: async ({ req, res }) => {
       const run = await findRun(ctx, String(req.params.id));
-      const index = checkTrialIndex(String(req.params.index), trialCountOf(run, await storedResult(ctx, run)));
-      sendS2p(res, `lotwise-run-${run.id.slice(0, 8)}-trial-${index}.s2p`, runTouchstone(run, index));
+      const index = checkTrialIndex(String(req.params.index), trialCountOf(run, run.state === "done" ? { trials: run.trialsDone } : null));
+      requireDone(run);
+      const text = await withExportSignal(res, (signal) => runTouchstone(ctx, run, index, signal));
+      sendS2p(res, `lotwise-run-${run.id.slice(0, 8)}-trial-${index}.s2p`, text);
     },
   });
 
@@ -130,10 +176,24 @@ export function runsRoutes(ctx: AppContext): ApiRouter {
     access: "signed-in",
     handler: async ({ req, res }) => {
       const run = await findRun(ctx, String(req.params.id));
-      const index = checkTrialIndex(String(req.params.index), trialCountOf(run, await storedResult(ctx, run)));
-      res.json(presentTrialReplay(run, index));
+      const index = checkTrialIndex(String(req.params.index), trialCountOf(run, run.state === "done" ? { trials: run.trialsDone } : null));
+      requireDone(run);
+      res.json(await withExportSignal(res, (signal) => trialReplay(ctx, run, index, signal)));
     },
   });
+
+  /** Runs one export task under a signal; a spent budget answers 503 EXPORT_TIMEOUT (the client leaving needs no answer). */
+  async function withExportSignal<T>(res: Response, work: (signal: AbortSignal) => Promise<T>): Promise<T> {
+    const exp = await exportSignal(ctx, (abort) => res.once("close", abort));
+    try {
+      return await work(exp.signal);
+    } catch (err) {
+      if (exp.signal.aborted && exp.signal.reason instanceof AppError) throw exp.signal.reason;
+      throw err;
+    } finally {
+      exp.dispose();
+    }
+  }
 
   return api;
 }

@@ -1,6 +1,8 @@
 import type { AppContext } from "../context";
 import { OutboxMessage } from "../entities";
 import { presentOutboxMessage } from "../presenters/user.presenter";
+import { runLimits, saveRunLimits } from "../services/run-limits";
+import { computeLimitsSchema, DEFAULT_COMPUTE_LIMITS } from "../../shared/schemas/settings";
 import { ApiRouter } from "./api-router";
 
 /** Health (public, for monitoring) and the local mail stand-in's outbox (admin, development and demo only). */
@@ -18,6 +20,22 @@ export function systemRoutes(ctx: AppContext): ApiRouter {
       ]);
       const ok = up && !(dispatch?.mode === "distributed" && dispatch.redis === "down");
       res.status(ok ? 200 : 503).json({ status: ok ? "ok" : "degraded", database: up ? "up" : "down", ...(dispatch ? { dispatch } : {}) });
+    },
+  });
+
+  // Compute limits (what one run or export may cost): everyone reads them (the launch form shows them), the admin sets them.
+  api.get("/settings/compute-limits", {
+    access: "signed-in",
+    handler: async ({ res }) => {
+      res.json({ limits: await runLimits(ctx), defaults: DEFAULT_COMPUTE_LIMITS });
+    },
+  });
+
+  api.put("/settings/compute-limits", {
+    access: ["admin"],
+    body: computeLimitsSchema,
+    handler: async ({ res, body, user }) => {
+      res.json({ limits: await saveRunLimits(ctx, user!.id, body), defaults: DEFAULT_COMPUTE_LIMITS });
     },
   });
 

@@ -14,6 +14,7 @@ import { AppError, notFound } from "../errors";
 import {
   presentDesign, presentLimitSetSummary, presentMeasuredSummary, presentRevisionSummary, type LatestRevisionView, type LatestYieldView,
 } from "../presenters/design.presenter";
+import { compileSampling } from "../../shared/engine/sampling";
 import { compileNetlist } from "../../shared/engine/solver";
 import { isEngineError } from "../../shared/engine/errors";
 import type { Netlist } from "../../shared/engine/netlist";
@@ -55,12 +56,14 @@ export function defaultSweep(netlist: Netlist): SweepSetting {
 }
 
 /**
- * Semantic check of a netlist (compileNetlist). An EngineError becomes 400 INVALID_NETLIST with the field
- * `<prefix>.<engine path>`, e.g. `netlist.parts[2].value`.
+ * Semantic check of a netlist: the circuit (compileNetlist) and its tolerance model (compileSampling: an absolute
+ * tolerance must be smaller than the value, …), so nothing is stored that a run would later refuse. An EngineError
+ * becomes 400 INVALID_NETLIST with the field `<prefix>.<engine path>`, e.g. `netlist.parts[2].value`.
  */
 export function checkNetlist(netlist: Netlist, prefix = "netlist"): void {
   try {
     compileNetlist(netlist);
+    compileSampling(netlist);
   } catch (error) {
     if (!isEngineError(error)) throw error;
     const field = error.path ? `${prefix}.${error.path}` : prefix;
@@ -199,6 +202,9 @@ export async function replaceRevision(ctx: AppContext, id: string, input: Omit<R
   await ctx.dataSource.transaction(async (m) => {
     const revision = await m.getRepository(DesignRevision).createQueryBuilder("r").setLock("pessimistic_write").where("r.id = :id", { id }).getOne();
     if (!revision) throw notFound("That revision");
+    if (revision.reviewState !== "draft") {
+      throw new AppError("REVISION_LOCKED", `Revision ${revision.number} is frozen because it is ${revision.reviewState.replace("-", " ")}; make a new revision from this one.`);
+    }
     if (revision.locked || (await m.getRepository(Run).existsBy({ revisionId: id }))) {
       throw new AppError("REVISION_LOCKED", `Revision ${revision.number} is locked because a run uses it; make a new revision from this one.`);
     }

@@ -61,7 +61,9 @@ export async function applyReviewAction(ctx: AppContext, actor: AuthUser, revisi
     if (!rule.from.includes(rev.reviewState)) {
       throw new AppError("REVIEW_STATE", `This revision is ${rev.reviewState}; to ${rule.verb} it must be ${rule.from.join(" or ")}.`);
     }
-    await m.getRepository(DesignRevision).update({ id: rev.id }, { reviewState: rule.to });
+    // Asking for a review freezes the revision for good (what was reviewed is what gets approved, and what was
+    // approved is what gets built): any later change is a new revision. Sent back, it stays frozen too.
+    await m.getRepository(DesignRevision).update({ id: rev.id }, { reviewState: rule.to, locked: true });
     await m.getRepository(ReviewEvent).insert({ id: randomUUID(), revisionId: rev.id, actorId: actor.id, fromState: rev.reviewState, toState: rule.to, comment });
     return rev;
   });

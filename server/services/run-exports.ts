@@ -1,24 +1,30 @@
 /**
- * Exports of a stored run, all recomputed from the run's copied inputs and seed (nothing per trial is
- * stored): the trial replay, the trials CSV (streamed) and Touchstone v1.1 files of the nominal
- * response and of any trial.
+ * Exports of a stored run, all recomputed from the run's copied inputs and seed (nothing per trial is stored): the
+ * trial replay, the trials CSV (in slices) and Touchstone v1.1 files of the nominal response and of any trial.
+ *
+ * The computing happens on the export thread (ctx.exportPool, server/engine/export-pool.ts), never on the thread
+ * that answers requests. Each export runs under one AbortSignal (`exportSignal`): the client leaving, or the
+ * export's time budget (`maxExportSeconds`, admin setting) running out, stops it. Replays and trial files need a
+ * finished (`done`) run; the CSV's cost is checked against `maxExportCost` before anything is written.
  */
-import type { Response } from "express";
+import { randomUUID } from "node:crypto";
+import type { AppContext } from "../context";
 import type { Run } from "../entities";
 import { AppError } from "../errors";
-import { replayTrial } from "../../shared/engine/monte-carlo";
-import { createTrialStream } from "../../shared/engine/random";
-import { evaluateMarginsDb, fillMagnitudeDb } from "../../shared/engine/rules";
 import type { RunOptions } from "../../shared/engine/run-options";
-import { planRun, type RunPlan } from "../../shared/engine/run-plan";
-import { sampleTrial } from "../../shared/engine/sampling";
-import { nominalValues } from "../../shared/engine/solver";
-import { writeTouchstone } from "../../shared/formats/touchstone";
+import { planRun } from "../../shared/engine/run-plan";
+import { ruleName, type RunInputs } from "../../shared/formats/run-exports";
+import { computeCost } from "../../shared/schemas/settings";
+import { checkExportCost, planShape, runLimits } from "./run-limits";
+
+export { csvNumber } from "../../shared/formats/run-exports";
 
 /** Most trials one CSV export writes. */
 export const MAX_CSV_TRIALS = 100_000;
+/** Part evaluations per CSV slice (one export-thread task): about a tenth of a second. */
+const CSV_SLICE_COST = 2e6;
 
-const optionsOf = (run: Run) => run.options as unknown as RunOptions;
+const inputsOf = (run: Run): RunInputs => ({ netlist: run.netlist, limits: run.limits, options: run.options as unknown as RunOptions });
 
 /** Trials a run has (or will have): the result's count when done, else the requested total. */
 export function trialCountOf(run: Run, result: { trials?: unknown } | null): number {
@@ -35,53 +41,40 @@ export function checkTrialIndex(raw: string, trials: number): number {
   return index;
 }
 
-/** Short text for a rule: its label, or metric and band. */
-function ruleName(rule: { label?: string; metric: string; from: number; to: number }): string {
-  return rule.label || `${rule.metric} ${rule.from}–${rule.to} Hz`;
+/** Trials of a finished run can be replayed and exported; a queued, running, failed or cancelled run has none to show. @throws AppError 409 RUN_NOT_DONE */
+export function requireDone(run: Run): void {
+  if (run.state !== "done") throw new AppError("RUN_NOT_DONE", `This run is ${run.state}; trials can be replayed and exported once it is done.`);
 }
 
-/** GET /api/runs/:id/trials/:index body: one trial replayed exactly from the seed. */
-export function presentTrialReplay(run: Run, index: number) {
-  const options = optionsOf(run);
-  const replay = replayTrial(run.netlist, run.limits, options, options.seed, index);
-  const rules = run.limits.rules;
-  const shown = replay.corners.find((c) => c.tempC === 25) ?? replay.corners[0];
-  const sDb: Record<string, number[]> = {};
-  for (const [name, values] of Object.entries(shown.sDb)) sDb[name.replace(/_db$/, "")] = values;
-  return {
-    trial: {
-      index,
-      pass: replay.pass,
-      parts: replay.parts.map((p, k) => ({ ...p, kind: run.netlist.parts[k].kind })),
-      margins: replay.margins.map((margin, r) => ({ rule: r, metric: rules[r].metric, label: ruleName(rules[r]), margin })),
-      tempC: shown.tempC,
-      freqs: replay.freqs,
-      sDb,
-      gdNs: shown.gd21Ns,
-    },
-  };
+/** A signal for one export: aborted when `onGone` fires (the client left) or after the time budget; `dispose` clears the timer. */
+export async function exportSignal(ctx: AppContext, onGone: (abort: () => void) => void): Promise<{ signal: AbortSignal; dispose(): void; seconds: number }> {
+  const { maxExportSeconds } = await runLimits(ctx);
+  const controller = new AbortController();
+  const timer = setTimeout(() => controller.abort(new AppError("EXPORT_TIMEOUT", `This export took longer than its budget of ${maxExportSeconds} s and was stopped.`, { headers: { "Retry-After": "60" } })), maxExportSeconds * 1000);
+  timer.unref();
+  onGone(() => controller.abort(new Error("client gone")));
+  return { signal: controller.signal, seconds: maxExportSeconds, dispose: () => clearTimeout(timer) };
+}
+
+/** GET /api/runs/:id/trials/:index body: one trial replayed exactly from the seed (on the export thread). */
+export async function trialReplay(ctx: AppContext, run: Run, index: number, signal: AbortSignal) {
+  const cost = computeCost({ trials: 1, corners: ((run.options as { corners?: unknown[] }).corners ?? [25]).length, points: 1, parts: run.netlist.parts.length });
+  return ctx.exportPool.run(randomUUID(), cost, { kind: "replay", run: inputsOf(run), index }, signal);
 }
 
 /**
- * Touchstone v1.1 (.s2p) of the nominal response (index null) or of trial `index`, at 25 °C.
+ * Touchstone v1.1 (.s2p) of the nominal response (index null) or of trial `index`, at 25 °C (on the export thread).
  * @throws AppError 400 when the netlist is not a two-port or its ports use different references
  *   (a v1.1 file holds one reference resistance)
  */
-export function runTouchstone(run: Run, index: number | null): string {
+export async function runTouchstone(ctx: AppContext, run: Run, index: number | null, signal: AbortSignal): Promise<string> {
   const ports = run.netlist.ports;
   if (ports.length !== 2) throw new AppError("INVALID_INPUT", `A .s2p file needs a two-port; this netlist has ${ports.length} ports.`);
   if (ports[0].z0 !== ports[1].z0) {
     throw new AppError("INVALID_INPUT", `Touchstone 1.1 holds one reference resistance; this netlist's ports use ${ports[0].z0} and ${ports[1].z0} ohm.`);
   }
-  const plan = planRun(run.netlist, run.limits, { ...optionsOf(run), trials: Math.max(run.trialsTotal, (index ?? 0) + 1) });
-  const values = index === null ? nominalValues(plan.compiled) : new Float64Array(plan.sampling.partCount);
-  if (index !== null) sampleTrial(plan.sampling, createTrialStream(plan.options.seed, index), values);
-  const buf = plan.evaluator.evaluate(values, 25);
-  const what = index === null ? "nominal response" : `trial ${index}`;
-  return writeTouchstone(
-    { freqs: buf.freqs, s: buf.s, ports: 2, z0: ports[0].z0 },
-    { comment: [`Lotwise run ${run.id}: ${what} at 25 °C`, `seed ${String(plan.options.seed)}, ${run.netlist.name ?? "netlist"}`] },
-  );
+  const trials = Math.max(run.trialsTotal, (index ?? 0) + 1);
+  return ctx.exportPool.run(randomUUID(), run.netlist.parts.length, { kind: "touchstone", run: inputsOf(run), trials, index, runId: run.id }, signal);
 }
 
 /**
@@ -95,10 +88,6 @@ export function csvText(text: string): string {
   return /[",\r\n]/.test(safe) ? `"${safe.replace(/"/g, '""')}"` : safe;
 }
 
-export function csvNumber(x: number): string {
-  return Number.isFinite(x) ? String(x) : "";
-}
-
 /** The CSV header: trial, one value column per part ref, one margin column per rule, pass. */
 export function trialsCsvHeader(run: Run): string {
   const cells = ["trial", ...run.netlist.parts.map((p) => p.ref), ...run.limits.rules.map((r) => `margin ${ruleName(r)}`), "pass"];
@@ -106,43 +95,41 @@ export function trialsCsvHeader(run: Run): string {
 }
 
 /**
- * Streams `trial,<part values…>,<worst margin per rule…>,pass` for trials 0..trials−1, in slices of
- * 250 rows with a turn of the event loop between them and waiting for `drain` when the socket is full.
- * @throws AppError 400 beyond MAX_CSV_TRIALS (before anything is written)
+ * Checks a trials export before anything is written: at most MAX_CSV_TRIALS trials and within the export cost limit.
+ * Returns the slices to compute.
+ * @throws AppError 400 naming `trials`
  */
-export async function streamTrialsCsv(res: Response, run: Run, trials: number): Promise<void> {
+export async function planTrialsCsv(ctx: AppContext, run: Run, trials: number): Promise<{ start: number; count: number }[]> {
   if (trials > MAX_CSV_TRIALS) {
     throw new AppError("INVALID_INPUT", `A trials export holds at most ${MAX_CSV_TRIALS} trials; this run has ${trials}.`, { fields: { trials: `at most ${MAX_CSV_TRIALS}` } });
   }
-  const plan: RunPlan = planRun(run.netlist, run.limits, { ...optionsOf(run), trials: Math.max(trials, 1) });
-  res.status(200);
-  res.set("Content-Type", "text/csv; charset=utf-8");
-  res.set("Content-Disposition", `attachment; filename="lotwise-run-${run.id.slice(0, 8)}-trials.csv"`);
-  res.write(trialsCsvHeader(run));
-  const P = plan.sampling.partCount;
-  const R = plan.rules.length;
-  const values = new Float64Array(P);
-  const margins = new Float64Array(R);
-  const worst = new Float64Array(R);
-  const db = new Float64Array(plan.pairs.length * plan.grid.freqs.length);
-  let gone = false;
-  res.once("close", () => (gone = true));
-  for (let start = 0; start < trials && !gone; start += 250) {
-    let text = "";
-    for (let t = start; t < Math.min(trials, start + 250); t++) {
-      sampleTrial(plan.sampling, createTrialStream(plan.options.seed, t), values);
-      worst.fill(Infinity);
-      for (const tempC of plan.options.corners) {
-        const buf = plan.evaluator.evaluate(values, tempC);
-        fillMagnitudeDb(buf, db);
-        evaluateMarginsDb(db, buf, plan.rules, margins);
-        for (let r = 0; r < R; r++) if (margins[r] < worst[r]) worst[r] = margins[r];
-      }
-      const pass = worst.every((m) => m >= 0);
-      text += `${t},${Array.from(values, csvNumber).join(",")}${R ? "," : ""}${Array.from(worst, csvNumber).join(",")},${pass}\n`;
+  const plan = planRun(run.netlist, run.limits, { ...(run.options as unknown as RunOptions), trials: Math.max(trials, 1) });
+  checkExportCost(plan, trials, await runLimits(ctx));
+  const perTrial = computeCost({ ...planShape(plan), trials: 1 });
+  const step = Math.max(1, Math.min(1000, Math.floor(CSV_SLICE_COST / perTrial)));
+  const slices: { start: number; count: number }[] = [];
+  for (let start = 0; start < trials; start += step) slices.push({ start, count: Math.min(step, trials - start) });
+  return slices;
+}
+
+/**
+ * The rows of a trials export, slice by slice, computed on the export thread one slice ahead of the writer.
+ * Stops (rejecting with the signal's reason) when the signal aborts.
+ */
+export async function* trialsCsvRows(ctx: AppContext, run: Run, trials: number, slices: { start: number; count: number }[], signal: AbortSignal): AsyncGenerator<string> {
+  const key = randomUUID();
+  const inputs = inputsOf(run);
+  const perTrial = computeCost({ trials: 1, corners: ((run.options as { corners?: unknown[] }).corners ?? [25]).length, points: 1, parts: run.netlist.parts.length });
+  const compute = (s: { start: number; count: number }) => ctx.exportPool.run<string>(key, s.count * perTrial, { kind: "csv", run: inputs, trials: Math.max(trials, 1), start: s.start, count: s.count }, signal);
+  try {
+    let ahead: Promise<string> | null = slices.length ? compute(slices[0]) : null;
+    for (let k = 0; k < slices.length; k++) {
+      const current = ahead!;
+      ahead = k + 1 < slices.length ? compute(slices[k + 1]) : null;
+      ahead?.catch(() => undefined); // awaited next round; a failure meanwhile must not be unhandled
+      yield await current;
     }
-    if (!res.write(text)) await new Promise<void>((resolve) => { res.once("drain", resolve); res.once("close", resolve); });
-    await new Promise<void>((resolve) => setImmediate(resolve));
+  } finally {
+    ctx.exportPool.forget(key);
   }
-  res.end();
 }

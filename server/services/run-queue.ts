@@ -2,8 +2,10 @@
  * The run queue: executes stored `queued` runs through the run dispatcher (the server's trial pool, or chunk
  * jobs for worker processes in distributed mode: server/engine/dispatcher.ts).
  *
- * - At most `maxRunning` runs execute at once, oldest `queuedAt` first. A run is claimed with a
- *   conditional UPDATE (queued → running), so two queues on one database never run it twice.
+ * - At most `maxRunning` runs execute at once, and at most one per person: the next run is the oldest queued run
+ *   of a person with nothing running, so one person's big run or sweep never holds everyone else's small ones (the
+ *   runs beside it share the trial pool chunk by chunk: trial-pool.ts). A run is claimed with a conditional UPDATE
+ *   (queued → running), so two queues on one database never run it twice.
  * - start(): runs left `running` by a stopped or crashed server go back to `queued` (a re-run gives the
  *   same result: every trial's random stream comes from the seed alone), then the queue is pumped.
  * - Progress: trialsDone is written to the run row at most every `progressIntervalMs` (default 500 ms,
@@ -191,10 +193,13 @@ export function createRunQueue(deps: RunQueueDeps): RunQueue {
       do {
         again = false;
         while (!closed && active.size < maxRunning) {
+          // Fair share: the oldest queued run of a person who has no run running (here or on another server on
+          // this database). One person's long run or sweep holds one slot; the others' runs start beside it.
           const next = await runs()
             .createQueryBuilder("r")
             .where("r.state = :s", { s: "queued" })
             .andWhere(active.size ? "r.id NOT IN (:...ids)" : "1=1", { ids: [...active.keys()] })
+            .andWhere("r.launched_by_id NOT IN (SELECT b.launched_by_id FROM run b WHERE b.state = 'running')")
             .orderBy("r.queuedAt", "ASC")
             .addOrderBy("r.id", "ASC")
             .getOne();
@@ -275,8 +280,8 @@ export function createRunQueue(deps: RunQueueDeps): RunQueue {
     }
     const err = failure;
     if (closed && !a.cancelled) {
-      // Server stopping: leave the run for the next start.
-      await runs().update({ id: run.id, state: "running" }, { state: "queued", startedAt: null, trialsDone: 0 }).catch(() => undefined);
+      // Server stopping: leave the run for the next start, marked as interrupted.
+      await requeueInterrupted(run.id).catch(() => undefined);
       return;
     }
     if (a.cancelled || (err instanceof EngineError && err.code === "CANCELLED")) {
@@ -296,6 +301,19 @@ export function createRunQueue(deps: RunQueueDeps): RunQueue {
       else final = "cancelled"; // a cancel won the race
     }
     emit(run.id, { type: "end", state: final });
+  }
+
+  /**
+   * Puts `running` runs (one, or all that a stopped or killed server left) back to `queued`, counting the interruption
+   * so the run shows that it was interrupted and resumed; it runs again from its seed to the same result.
+   */
+  async function requeueInterrupted(runId?: string): Promise<void> {
+    const q = runs().createQueryBuilder().update(Run)
+      .set({ state: "queued", startedAt: null, trialsDone: 0, interruptions: () => "interruptions + 1", lastInterruptedAt: new Date() })
+      .where("state = :s", { s: "running" });
+    if (runId) q.andWhere("id = :id", { id: runId });
+    const res = await q.execute();
+    if (res.affected) log.warn("runs_interrupted_requeued", { runs: res.affected, ...(runId ? { runId } : {}) });
   }
 
   /** Run row and run_result in one transaction; false when the run is no longer `running`. */
@@ -343,7 +361,7 @@ export function createRunQueue(deps: RunQueueDeps): RunQueue {
     dispatchStatus: async () => (created ? created.status() : null),
     maxRunning,
     async start() {
-      await runs().update({ state: "running" }, { state: "queued", startedAt: null, trialsDone: 0 });
+      await requeueInterrupted();
       await pump();
     },
     kick() {

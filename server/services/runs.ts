@@ -7,12 +7,14 @@ import type { AppContext } from "../context";
 import { Design, DesignRevision, Grade, LimitSet, Run, RunResultRow, User } from "../entities";
 import { AppError, notFound } from "../errors";
 import { presentRunDetail, runEconomics } from "../presenters/run.presenter";
-import { buildFrequencyGrid } from "../../shared/engine/frequency-grid";
 import { EngineError } from "../../shared/engine/errors";
+import { buildFrequencyGrid } from "../../shared/engine/frequency-grid";
 import { validateLimits } from "../../shared/engine/limits";
 import type { Netlist, Part } from "../../shared/engine/netlist";
 import { resolveRunOptions, type RunOptions } from "../../shared/engine/run-options";
+import { compileSampling } from "../../shared/engine/sampling";
 import { compileNetlist } from "../../shared/engine/solver";
+import { checkRunCost, runLimits, type CostShape } from "./run-limits";
 import { MAX_API_SEED, type CreateRunInput } from "../../shared/schemas/run-request";
 
 let lastQueuedMs = 0;
@@ -66,13 +68,20 @@ export function bomCostOf(netlist: Netlist, grades: Grade[]): number {
   return netlist.parts.reduce((sum, p) => sum + (p.grade ? cost.get(`${p.kind}:${p.grade}`) ?? 0 : 0), 0);
 }
 
-/** Engine checks that need no solving (a singular circuit fails the run itself, with the reason). */
-function checkRunInputs(netlist: Netlist, limits: unknown, options: RunOptions): void {
+/**
+ * Engine checks before anything is stored: circuit, limits, options, grid and the tolerance model (an absolute
+ * tolerance as large as the value, …), so nothing is accepted that a worker would later refuse. A circuit whose
+ * nominal solution is singular is accepted: the run itself fails with the reason. Returns the shape that sets the
+ * run's cost.
+ */
+function checkRunInputs(netlist: Netlist, limits: unknown, options: RunOptions): CostShape {
   try {
     const compiled = compileNetlist(netlist);
     const rules = validateLimits(limits, compiled.portCount);
     const resolved = resolveRunOptions(options, rules);
-    buildFrequencyGrid(resolved.sweep, rules);
+    const grid = buildFrequencyGrid(resolved.sweep, rules);
+    const sampling = compileSampling(netlist, resolved);
+    return { trials: resolved.trials, corners: resolved.corners.length, points: grid.freqs.length, parts: sampling.partCount };
   } catch (err) {
     if (!(err instanceof EngineError)) throw err;
     const where = err.code === "INVALID_NETLIST" ? "netlist" : err.code === "INVALID_LIMITS" ? "limits" : "";
@@ -85,52 +94,58 @@ function checkRunInputs(netlist: Netlist, limits: unknown, options: RunOptions):
  * Stores a queued run of a revision against a limit set and locks the revision; the queue picks it up.
  * @throws AppError NOT_FOUND (revision, limit set), VALIDATION_FAILED (overrides, a limit set of another design), engine input errors as 400
  */
-export async function createRun(ctx: AppContext, user: { id: string; name: string }, input: CreateRunInput): Promise<Run> {
-  const revision = await ctx.dataSource.getRepository(DesignRevision).findOneBy({ id: input.revisionId });
-  if (!revision) throw notFound("The revision");
+export async function createRun(ctx: AppContext, user: { id: string; name: string }, input: CreateRunInput, owned: { sweepId?: string } = {}): Promise<Run> {
   const limitSet = await ctx.dataSource.getRepository(LimitSet).findOneBy({ id: input.limitSetId });
-  if (!limitSet) throw notFound("The limit set");
-  if (limitSet.designId !== revision.designId) {
-    throw new AppError("VALIDATION_FAILED", "limitSetId: the limit set belongs to another design", { fields: { limitSetId: "belongs to another design" } });
-  }
   const grades = await ctx.dataSource.getRepository(Grade).find();
-  const netlist = applyOverrides(revision.netlist, grades, input);
-  const options: RunOptions = { trials: input.trials, seed: input.seed ?? randomInt(0, MAX_API_SEED + 1) };
-  if (revision.sweep && typeof revision.sweep === "object") options.sweep = { ...revision.sweep };
-  if (input.corners) options.corners = input.corners.slice();
-  if (input.targetHalfWidth !== undefined) options.targetHalfWidth = input.targetHalfWidth;
-  checkRunInputs(netlist, limitSet.limits, options);
+  const limits = await runLimits(ctx);
+  // The revision is read under its row lock, in the transaction that locks it and stores the run: an edit of the
+  // revision (which takes the same lock) is either before (the run copies the new values) or refused after.
+  // Taking the exclusive lock first also keeps two launches from deadlocking on the run insert's foreign-key check.
+  return ctx.dataSource.transaction(async (m) => {
+    const revision = await m.getRepository(DesignRevision).createQueryBuilder("r").setLock("pessimistic_write").where("r.id = :id", { id: input.revisionId }).getOne();
+    if (!revision) throw notFound("The revision");
+    if (!limitSet) throw notFound("The limit set");
+    if (limitSet.designId !== revision.designId) {
+      throw new AppError("VALIDATION_FAILED", "limitSetId: the limit set belongs to another design", { fields: { limitSetId: "belongs to another design" } });
+    }
+    const netlist = applyOverrides(revision.netlist, grades, input);
+    const options: RunOptions = { trials: input.trials, seed: input.seed ?? randomInt(0, MAX_API_SEED + 1) };
+    if (revision.sweep && typeof revision.sweep === "object") options.sweep = { ...revision.sweep };
+    if (input.corners) options.corners = input.corners.slice();
+    if (input.targetHalfWidth !== undefined) options.targetHalfWidth = input.targetHalfWidth;
+    checkRunCost(checkRunInputs(netlist, limitSet.limits, options), limits);
 
-  const run = ctx.dataSource.getRepository(Run).create({
-    id: randomUUID(),
-    designId: revision.designId,
-    revisionId: revision.id,
-    limitSetId: limitSet.id,
-    sweepId: input.sweepId ?? null,
-    label: input.label ?? "",
-    netlist,
-    limits: structuredClone(limitSet.limits),
-    options: options as unknown as Record<string, unknown>,
-    gradeOverrides: { ...(input.gradeOverrides ?? {}) },
-    lotSize: limitSet.lotSize,
-    bomCost: bomCostOf(netlist, grades),
-    state: "queued",
-    trialsDone: 0,
-    trialsTotal: input.trials,
-    passed: null, yieldFraction: null, wilsonLow: null, wilsonHigh: null, errorCode: null, errorMessage: null,
-    launchedById: user.id,
-    queuedAt: nextQueuedAt(),
-    startedAt: null,
-    finishedAt: null,
-  });
-  // Lock the revision before inserting the run: the insert's foreign-key check takes a shared lock on the revision
-  // row, and two concurrent launches that both held it and then asked to update it deadlocked (seen with 50 at once).
-  await ctx.dataSource.transaction(async (m) => {
+    const run = m.getRepository(Run).create({
+      id: randomUUID(),
+      designId: revision.designId,
+      revisionId: revision.id,
+      limitSetId: limitSet.id,
+      sweepId: owned.sweepId ?? null,
+      label: input.label ?? "",
+      netlist,
+      limits: structuredClone(limitSet.limits),
+      options: options as unknown as Record<string, unknown>,
+      gradeOverrides: { ...(input.gradeOverrides ?? {}) },
+      lotSize: limitSet.lotSize,
+      bomCost: bomCostOf(netlist, grades),
+      state: "queued",
+      trialsDone: 0,
+      trialsTotal: input.trials,
+      passed: null, yieldFraction: null, wilsonLow: null, wilsonHigh: null, errorCode: null, errorMessage: null,
+      launchedById: user.id,
+      queuedAt: nextQueuedAt(),
+      startedAt: null,
+      finishedAt: null,
+      interruptions: 0,
+      lastInterruptedAt: null,
+    });
     if (!revision.locked) await m.getRepository(DesignRevision).update({ id: revision.id }, { locked: true });
     await m.getRepository(Run).save(run);
+    return run;
+  }).then((run) => {
+    ctx.runQueue.kick();
+    return run;
   });
-  ctx.runQueue.kick();
-  return run;
 }
 
 /** A run with its design, revision and launcher, or 404. */

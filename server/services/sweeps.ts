@@ -106,7 +106,7 @@ export async function createSweep(ctx: AppContext, user: AuthUser, input: Create
   const runIds: string[] = [];
   try {
     for (const a of input.assignments) {
-      const run = await createRun(ctx, user, { revisionId: revision.id, limitSetId: limitSet.id, trials: input.trials, seed, gradeOverrides: a.gradeOverrides, label: a.label, sweepId: sweep.id });
+      const run = await createRun(ctx, user, { revisionId: revision.id, limitSetId: limitSet.id, trials: input.trials, seed, gradeOverrides: a.gradeOverrides, label: a.label }, { sweepId: sweep.id });
       runIds.push(run.id);
     }
   } catch (error) {

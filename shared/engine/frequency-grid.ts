@@ -13,6 +13,12 @@ import { EngineError } from "./errors";
 /** Fewest and most sweep points. */
 export const MIN_POINTS = 2;
 export const MAX_POINTS = 10001;
+/**
+ * Frequencies the engine accepts: 1 mHz to 1 THz (a wide bracket around any LC filter; beyond it 2πf·L or 1/(2πf·C)
+ * leaves the range where the nodal solution is finite). Zero is allowed as the start of a linear sweep (DC).
+ */
+export const MIN_FREQUENCY_HZ = 1e-3;
+export const MAX_FREQUENCY_HZ = 1e12;
 
 /** A sweep request. */
 export interface SweepSpec {
@@ -79,6 +85,10 @@ export function validateSweep(sweep: unknown): SweepSpec {
   const log = (s.scale ?? "log") === "log";
   for (const f of ["from", "to"] as const) {
     if (typeof s[f] !== "number" || !Number.isFinite(s[f]) || s[f] < 0) throw bad(`sweep.${f}`, `\`${f}\` must be a finite frequency ≥ 0 Hz`);
+  }
+  for (const f of ["from", "to"] as const) {
+    if (s[f] > MAX_FREQUENCY_HZ) throw bad(`sweep.${f}`, `\`${f}\` must be at most ${MAX_FREQUENCY_HZ} Hz (1 THz)`);
+    if (s[f] > 0 && s[f] < MIN_FREQUENCY_HZ) throw bad(`sweep.${f}`, `\`${f}\` must be 0 or at least ${MIN_FREQUENCY_HZ} Hz (1 mHz)`);
   }
   if (log && !(s.from > 0)) throw bad("sweep.from", "`from` must be > 0 Hz for a log sweep");
   if (!(s.from < s.to)) throw bad("sweep.to", `sweep needs from < to (got from ${s.from} Hz, to ${s.to} Hz)`);

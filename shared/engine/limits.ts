@@ -9,6 +9,7 @@
  * - `min` and/or `max` (dB or ns); with both, min ≤ max. At most 100 rules.
  */
 import { EngineError } from "./errors";
+import { MAX_FREQUENCY_HZ, MIN_FREQUENCY_HZ } from "./frequency-grid";
 
 /** Most rules a limit set may hold. */
 export const MAX_RULES = 100;
@@ -91,6 +92,7 @@ function validateRule(rule: unknown, k: number, portCount: number): CompiledRule
   for (const f of ["from", "to"] as const) {
     const v = r[f];
     if (typeof v !== "number" || !Number.isFinite(v) || v <= 0) throw invalid(at(f), `rule ${k + 1}: \`${f}\` must be a positive frequency in Hz`);
+    if (v < MIN_FREQUENCY_HZ || v > MAX_FREQUENCY_HZ) throw invalid(at(f), `rule ${k + 1}: \`${f}\` must be between ${MIN_FREQUENCY_HZ} Hz and ${MAX_FREQUENCY_HZ} Hz (1 mHz to 1 THz)`);
   }
   const from = r.from as number;
   const to = r.to as number;

@@ -234,6 +234,19 @@ export async function runMonteCarlo(netlist: Netlist, limits: unknown, options: 
 /** Default and bounds of the chunk size. */
 export const DEFAULT_CHUNK_SIZE = 2500;
 
+/**
+ * Most part evaluations (trials × corners × points × parts) in one chunk: about 0.4 s of one thread. Chunks of
+ * large circuits get fewer trials, so runs that share a pool take turns at least this often (chunking never
+ * changes a result).
+ */
+export const CHUNK_COST_BUDGET = 1e7;
+
+/** The chunk size for a plan: `chunkSize`, or fewer trials when a chunk would cost more than CHUNK_COST_BUDGET (at least 1). */
+export function costBoundedChunkSize(plan: RunPlan, chunkSize: number): number {
+  const perTrial = plan.options.corners.length * plan.grid.freqs.length * plan.sampling.partCount;
+  return Math.max(1, Math.min(chunkSize, Math.floor(CHUNK_COST_BUDGET / Math.max(1, perTrial))));
+}
+
 /** Checks a chunk size (integer 1..1e6), default 2500. @throws EngineError INVALID_INPUT */
 export function validateChunkSize(chunkSize: number | undefined): number {
   if (chunkSize === undefined) return DEFAULT_CHUNK_SIZE;

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { MAX_FREQUENCY_HZ, MIN_FREQUENCY_HZ } from "../engine/frequency-grid";
 
 /**
  * JSON shape of a Lotwise limit set, for the API, CLI and upload edges:
@@ -11,7 +12,12 @@ import { z } from "zod";
 const METRIC = /^(s[1-9][1-9]_db|ripple_db|gd_ns)$/;
 
 const frequency = (what: string) =>
-  z.number({ message: `${what} must be a number (Hz)` }).positive({ message: `${what} must be > 0 Hz` }).finite({ message: `${what} must be finite` });
+  z
+    .number({ message: `${what} must be a number (Hz)` })
+    .positive({ message: `${what} must be > 0 Hz` })
+    .finite({ message: `${what} must be finite` })
+    .min(MIN_FREQUENCY_HZ, { message: `${what} must be at least 1e-3 Hz (1 mHz)` })
+    .max(MAX_FREQUENCY_HZ, { message: `${what} must be at most 1e12 Hz (1 THz)` });
 
 export const limitRuleSchema = z
   .strictObject({

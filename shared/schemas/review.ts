@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { partRecord } from "./part-record";
 
 /**
  * JSON and query shapes of run history, comments, revision review and grade sweeps (API edges).
@@ -94,7 +95,7 @@ export type ReviewActionInput = z.infer<typeof reviewActionSchema>;
 const assignmentSchema = z.object({
   label: z.string({ message: "label is required" }).trim().min(1, { message: "label must not be empty" }).max(160, { message: "label is at most 160 characters" }),
   /** part ref → grade code of the catalogue (checked against the revision and the catalogue by the service) */
-  gradeOverrides: z.record(z.string().min(1).max(40), z.string().min(1, { message: "grade code must not be empty" }).max(40)),
+  gradeOverrides: partRecord(z.string().min(1).max(40), z.string().min(1, { message: "grade code must not be empty" }).max(40)),
 });
 
 /** `POST /api/sweeps`: one run per assignment, all with the same seed. */

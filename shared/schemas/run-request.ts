@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { partRecord } from "./part-record";
 
 /**
  * JSON shape of `POST /api/runs`: launch a Monte Carlo run of a stored revision against a stored
@@ -41,11 +42,11 @@ export const createRunSchema = z.strictObject({
     .min(1, { message: "list at least one temperature" })
     .max(10, { message: "at most 10 temperature corners" })
     .optional(),
-  gradeOverrides: z.record(partRef, z.string().min(1).max(40)).optional(),
-  toleranceOverrides: z.record(partRef, toleranceOverrideSchema).optional(),
+  gradeOverrides: partRecord(partRef, z.string().min(1).max(40)).optional(),
+  toleranceOverrides: partRecord(partRef, toleranceOverrideSchema).optional(),
   label: z.string().trim().max(160, { message: "label is at most 160 characters" }).optional(),
-  /** set by the grade-sweep route; clients leave it out */
-  sweepId: id("sweepId").optional(),
+  // No `sweepId`: which sweep a run belongs to is the server's to say (POST /api/sweeps); the strict object refuses
+  // the field with a 400 naming it rather than ignoring it.
 });
 
 export type CreateRunInput = z.infer<typeof createRunSchema>;

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { MAX_FREQUENCY_HZ, MIN_FREQUENCY_HZ } from "../engine/frequency-grid";
 import { limitsSchema } from "./limits";
 import { netlistSchema } from "./netlist";
 
@@ -14,8 +15,12 @@ export const runSeedSchema = z.union([
 
 export const sweepSchema = z
   .strictObject({
-    from: z.number().nonnegative({ message: "from must be ≥ 0 Hz" }),
-    to: z.number().positive({ message: "to must be > 0 Hz" }),
+    from: z
+      .number()
+      .nonnegative({ message: "from must be ≥ 0 Hz" })
+      .max(MAX_FREQUENCY_HZ, { message: "from must be at most 1e12 Hz (1 THz)" })
+      .refine((f) => f === 0 || f >= MIN_FREQUENCY_HZ, { message: "from must be 0 or at least 1e-3 Hz (1 mHz)" }),
+    to: z.number().positive({ message: "to must be > 0 Hz" }).min(MIN_FREQUENCY_HZ, { message: "to must be at least 1e-3 Hz (1 mHz)" }).max(MAX_FREQUENCY_HZ, { message: "to must be at most 1e12 Hz (1 THz)" }),
     points: z.number().int({ message: "points must be an integer" }).min(2, { message: "points must be ≥ 2" }).max(10001, { message: "points must be ≤ 10001" }),
     scale: z.enum(["log", "lin"]).optional(),
   })

@@ -11,6 +11,7 @@ import { loadConfig, type ServerConfig } from "../../server/config/env";
 import type { AppContext } from "../../server/context";
 import { createDataSource, openAndMigrate } from "../../server/db/data-source";
 import { createEmbeddedDispatcher, type RunDispatcher } from "../../server/engine/dispatcher";
+import { createExportPool } from "../../server/engine/export-pool";
 import { OutboxMessage, User } from "../../server/entities";
 import { createLogger } from "../../server/logger";
 import { startMailSink } from "../../server/mail/mail-sink";
@@ -64,7 +65,8 @@ export async function createTestContext(
   const log = createLogger("silent");
   // A small pool (one thread unless asked; started on the first run) or the given dispatcher, and a queue that starts at once, so a POSTed run completes.
   const runQueue = createRunQueue({ dataSource, mailer, log, config, dispatcher: options.dispatcher ?? (() => createEmbeddedDispatcher({ size: options.poolSize ?? 1 })), maxRunning: options.maxRunning ?? 1 });
-  const ctx: AppContext = { config, dataSource, sessions, mailer, limiter: createSignInLimiter(options.limiter), log, runQueue };
+  const exportPool = createExportPool({ log });
+  const ctx: AppContext = { config, dataSource, sessions, mailer, limiter: createSignInLimiter(options.limiter), log, runQueue, exportPool };
   await runQueue.start();
   const { app, routes } = createApp(ctx);
 
@@ -96,6 +98,7 @@ export async function createTestContext(
     outbox: () => dataSource.getRepository(OutboxMessage).find({ order: { receivedAt: "DESC" } }),
     async close() {
       await runQueue.close();
+      await exportPool.close();
       mailer.close();
       await sink.close();
       await sessions.close();

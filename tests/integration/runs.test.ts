@@ -175,6 +175,7 @@ describe("replay and exports", () => {
     const netlist = { ...LOWPASS, parts: LOWPASS.parts.map((p, k) => (k === 1 ? { ...p, ref: "-L2" } : p)) };
     const g = await makeRunFixture(t, user, { netlist, limits: { rules: [{ ...LOWPASS_LIMITS.rules[0], label: "=1+1,x" }] } });
     const launched = await agent.post("/api/runs").set("Origin", ORIGIN).send({ revisionId: g.revision.id, limitSetId: g.limitSet.id, trials: 3, seed: 1 }).expect(201);
+    await t.ctx.runQueue.idle();
     const res = await agent.get(`/api/runs/${launched.body.run.id}/trials.csv`).buffer(true).parse(textParser).expect(200);
     expect((res.body as string).split("\n")[0]).toBe(`trial,C1,'-L2,C3,"margin =1+1,x",pass`);
   });

@@ -16,6 +16,8 @@ async function openInvitationToken(t: TestContext, caller: User): Promise<string
 export const foundationSamples: SampleTable = {
   "get /health": async () => ({ path: "/api/health" }),
   "get /outbox": async () => ({ path: "/api/outbox" }),
+  "get /settings/compute-limits": async () => ({ path: "/api/settings/compute-limits" }),
+  "put /settings/compute-limits": async () => ({ path: "/api/settings/compute-limits", body: { maxRunCost: 2e10, maxExportCost: 1e9, maxExportSeconds: 60 } }),
   "get /auth/me": async () => ({ path: "/api/auth/me" }),
   "post /auth/sign-in": async (t) => {
     const u = await t.buildUser();
@@ -27,7 +29,8 @@ export const foundationSamples: SampleTable = {
     path: "/api/auth/accept-invitation",
     body: { token: await openInvitationToken(t, caller), name: "Invitee", password: "a long enough password" },
   }),
-  "post /auth/request-reset": async () => ({ path: "/api/auth/request-reset", body: { email: "someone@lotwise.test" } }),
+  // A new address each time: requests are rate-limited per address (3 per 15 min), and the matrix calls this once per role.
+  "post /auth/request-reset": async () => ({ path: "/api/auth/request-reset", body: { email: `someone-${++seq}@lotwise.test` } }),
   "post /auth/reset-password": async (t) => {
     const u = await t.buildUser();
     await request(t.app).post("/api/auth/request-reset").set("Origin", ORIGIN).send({ email: u.email }).expect(202);

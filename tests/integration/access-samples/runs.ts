@@ -59,7 +59,8 @@ export async function makeRunFixture(
 
 /**
  * A run row written directly (no queue): state `running` by default, which no queue picks up (only start()
- * re-queues those), so samples can cancel it; `cancelled` for routes that must answer at once.
+ * re-queues those), so samples can cancel it; `cancelled` for routes that must answer at once; `done` (all trials
+ * counted, no stored result) for the replays and exports, which need a finished run.
  */
 export async function insertRun(t: TestContext, caller: User, state: Run["state"] = "running", trials = 20): Promise<Run> {
   const f = await makeRunFixture(t, caller);
@@ -67,7 +68,7 @@ export async function insertRun(t: TestContext, caller: User, state: Run["state"
   const run = repo.create({
     id: randomUUID(), designId: f.design.id, revisionId: f.revision.id, limitSetId: f.limitSet.id, sweepId: null, label: "",
     netlist: LOWPASS, limits: LOWPASS_LIMITS, options: { trials, seed: 11, sweep: LOWPASS_SWEEP }, gradeOverrides: {},
-    lotSize: 1000, bomCost: 0, state, trialsDone: 0, trialsTotal: trials, passed: null, yieldFraction: null, wilsonLow: null,
+    lotSize: 1000, bomCost: 0, state, trialsDone: state === "done" ? trials : 0, trialsTotal: trials, passed: null, yieldFraction: null, wilsonLow: null,
     wilsonHigh: null, errorCode: null, errorMessage: null, launchedById: caller.id, queuedAt: new Date(), startedAt: null,
     finishedAt: state === "running" ? null : new Date(),
   });
@@ -84,8 +85,8 @@ export const runsSamples: SampleTable = {
   "get /runs/:id": async (t, caller) => ({ path: `/api/runs/${(await insertRun(t, caller, "cancelled")).id}` }),
   "get /runs/:id/events": async (t, caller) => ({ path: `/api/runs/${(await insertRun(t, caller, "cancelled")).id}/events` }),
   "post /runs/:id/cancel": async (t, caller) => ({ path: `/api/runs/${(await insertRun(t, caller, "running")).id}/cancel` }),
-  "get /runs/:id/trials.csv": async (t, caller) => ({ path: `/api/runs/${(await insertRun(t, caller, "cancelled")).id}/trials.csv` }),
+  "get /runs/:id/trials.csv": async (t, caller) => ({ path: `/api/runs/${(await insertRun(t, caller, "done")).id}/trials.csv` }),
   "get /runs/:id/nominal.s2p": async (t, caller) => ({ path: `/api/runs/${(await insertRun(t, caller, "cancelled")).id}/nominal.s2p` }),
-  "get /runs/:id/trials/:index.s2p": async (t, caller) => ({ path: `/api/runs/${(await insertRun(t, caller, "cancelled")).id}/trials/3.s2p` }),
-  "get /runs/:id/trials/:index": async (t, caller) => ({ path: `/api/runs/${(await insertRun(t, caller, "cancelled")).id}/trials/3` }),
+  "get /runs/:id/trials/:index.s2p": async (t, caller) => ({ path: `/api/runs/${(await insertRun(t, caller, "done")).id}/trials/3.s2p` }),
+  "get /runs/:id/trials/:index": async (t, caller) => ({ path: `/api/runs/${(await insertRun(t, caller, "done")).id}/trials/3` }),
 };

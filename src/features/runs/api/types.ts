@@ -33,6 +33,9 @@ export type RunSummary = {
   errorMessage: string | null;
   bomCost: number | null;
   lotSize: number;
+  /** times a server stop interrupted the run and it ran again from its seed (same result) */
+  interruptions: number;
+  lastInterruptedAt: string | null;
 };
 
 // The engine's own result types are already JSON-safe (plain numbers and arrays).
