@@ -12,6 +12,8 @@ export class Trust1764892800000 implements MigrationInterface {
     await q.query(`ALTER TABLE \`run\` ADD \`last_interrupted_at\` datetime(3) NULL DEFAULT NULL`);
     await q.query(`UPDATE \`run\` SET \`sweep_id\` = NULL WHERE \`sweep_id\` IS NOT NULL AND \`sweep_id\` NOT IN (SELECT \`id\` FROM \`grade_sweep\`)`);
     await q.query(`ALTER TABLE \`run\` ADD CONSTRAINT \`FK_RUN_SWEEP\` FOREIGN KEY (\`sweep_id\`) REFERENCES \`grade_sweep\`(\`id\`) ON DELETE SET NULL ON UPDATE NO ACTION`);
+    // A revision that has been sent for review is frozen from now on (earlier it stayed editable while in review).
+    await q.query(`UPDATE \`design_revision\` SET \`locked\` = 1 WHERE \`review_state\` <> 'draft'`);
     await q.query(`CREATE TABLE \`app_setting\` (\`key\` varchar(64) NOT NULL, \`value\` json NOT NULL, \`updated_by_id\` varchar(255) NULL DEFAULT NULL, \`updated_at\` datetime(3) NOT NULL DEFAULT CURRENT_TIMESTAMP(3), PRIMARY KEY (\`key\`)) ENGINE=InnoDB DEFAULT CHARSET=utf8mb4 COLLATE=utf8mb4_unicode_ci`);
   }
 

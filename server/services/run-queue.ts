@@ -85,6 +85,7 @@ interface Active {
   total: number;
   lastPushMs: number;
   cancelled: boolean;
+  launcherId: string;
 }
 
 /** The stored JSON of a finished run: the engine result made JSON-safe, plus the grid and nominal curves. */
@@ -193,13 +194,15 @@ export function createRunQueue(deps: RunQueueDeps): RunQueue {
       do {
         again = false;
         while (!closed && active.size < maxRunning) {
-          // Fair share: the oldest queued run of a person who has no run running (here or on another server on
-          // this database). One person's long run or sweep holds one slot; the others' runs start beside it.
+          // Fair share: the oldest queued run of a person who has no run executing in this queue. One person's long
+          // run or sweep holds one slot; the others' runs start beside it. (Only this queue's own runs count: a row
+          // left `running` by a server that died must not hold its launcher's later runs until a restart.)
+          const busy = [...new Set([...active.values()].map((x) => x.launcherId))];
           const next = await runs()
             .createQueryBuilder("r")
             .where("r.state = :s", { s: "queued" })
             .andWhere(active.size ? "r.id NOT IN (:...ids)" : "1=1", { ids: [...active.keys()] })
-            .andWhere("r.launched_by_id NOT IN (SELECT b.launched_by_id FROM run b WHERE b.state = 'running')")
+            .andWhere(busy.length ? "r.launched_by_id NOT IN (:...busy)" : "1=1", { busy })
             .orderBy("r.queuedAt", "ASC")
             .addOrderBy("r.id", "ASC")
             .getOne();
@@ -209,7 +212,7 @@ export function createRunQueue(deps: RunQueueDeps): RunQueue {
           if (claim.affected !== 1) continue; // another queue took it, or it was cancelled
           next.state = "running";
           next.startedAt = startedAt;
-          const a: Active = { controller: new AbortController(), startedMs: Date.now(), done: 0, total: next.trialsTotal, lastPushMs: 0, cancelled: false };
+          const a: Active = { controller: new AbortController(), startedMs: Date.now(), done: 0, total: next.trialsTotal, lastPushMs: 0, cancelled: false, launcherId: next.launchedById };
           active.set(next.id, a);
           const p = execute(next, a)
             .catch((err) => log.error("run_execution_failed", { runId: next.id, message: (err as Error).message, stack: (err as Error)?.stack }))

@@ -273,13 +273,13 @@ describe("replays and exports run off the request thread (fault 3)", () => {
       console.log(`export past its 1 s budget: stopped after ${seconds.toFixed(1)} s with ${outcome.bytes} bytes (${outcome.error ?? "ended"})`);
       expect(outcome.complete).toBe(false);
       expect(seconds).toBeLessThan(20);
-      // the export thread is free again: a replay of a small finished run answers
-      const small = await insertRun(t, analyst.user, "done", 20);
-      await analyst.agent.get(`/api/runs/${small.id}/trials/2`).expect(200);
       server.close();
     } finally {
       await put(admin.agent, "/api/settings/compute-limits").send(limits).expect(200);
     }
+    // the export thread is free again: a replay of a small finished run answers
+    const small = await insertRun(t, analyst.user, "done", 20);
+    await analyst.agent.get(`/api/runs/${small.id}/trials/2`).expect(200);
   }, 60_000);
 });
 

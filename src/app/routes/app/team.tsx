@@ -10,6 +10,8 @@ import { getMembersQueryOptions } from "@/features/team/api/get-members";
 import { InvitationsTable } from "@/features/team/components/invitations-table";
 import { InviteForm } from "@/features/team/components/invite-form";
 import { MembersTable } from "@/features/team/components/members-table";
+import { getComputeLimitsQueryOptions } from "@/features/settings/api/compute-limits";
+import { ComputeLimitsForm } from "@/features/settings/components/compute-limits-form";
 import { useAppUser } from "@/app/routes/app/app-context";
 
 /** Starts both team reads while the page module loads (admins only; others would get 403). */
@@ -18,6 +20,7 @@ export const clientLoader = (queryClient: QueryClient) => async () => {
   if (me && hasAnyRole(me.roles, ["admin"])) {
     void queryClient.prefetchQuery(getMembersQueryOptions());
     void queryClient.prefetchQuery(getInvitationsQueryOptions());
+    void queryClient.prefetchQuery(getComputeLimitsQueryOptions());
   }
   return null;
 };
@@ -50,6 +53,11 @@ export default function TeamRoute() {
             </RegionBoundary>
           </Card>
         </div>
+        <Card title="Compute limits" description="What one run or one export may cost, so no single request holds the team's queue.">
+          <RegionBoundary region="Compute limits">
+            <ComputeLimitsForm />
+          </RegionBoundary>
+        </Card>
       </div>
     </>
   );

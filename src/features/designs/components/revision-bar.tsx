@@ -6,7 +6,7 @@ import { formatDateTime } from "@/utils/format";
 
 const REVIEW_TONE = { draft: "muted", "in-review": "signal", approved: "pass", "changes-requested": "fault" } as const;
 
-/** Which revision is open, its review state and whether a run has locked it. */
+/** Which revision is open, its review state and whether a run or its review has locked it. */
 export function RevisionBar({ designId, revisions, current }: { designId: string; revisions: RevisionSummary[]; current: RevisionSummary }) {
   const navigate = useNavigate();
   return (
@@ -27,7 +27,7 @@ export function RevisionBar({ designId, revisions, current }: { designId: string
         </select>
       </label>
       <Badge tone={REVIEW_TONE[current.reviewState]}>{current.reviewState}</Badge>
-      {current.locked && <Badge tone="signal">locked by a run</Badge>}
+      {current.locked && <Badge tone="signal">{current.reviewState === "draft" ? "locked by a run" : "frozen by its review"}</Badge>}
       <span className="text-xs text-ink-300">
         by {current.createdBy.name}, {formatDateTime(current.createdAt)}
       </span>

@@ -16,6 +16,10 @@ export function RunFacts({ run }: { run: RunDetail }) {
     ["grades", overrides.length ? overrides.map(([ref, code]) => `${ref}→${code}`).join(", ") : "as entered"],
     ["launched", `${run.launchedBy.name}, ${formatDateTime(run.queuedAt)}`],
   ];
+  // A server stop interrupted the run; it ran again from its seed, so the numbers are those of an uninterrupted run.
+  if (run.interruptions > 0) {
+    facts.push(["interrupted", `${run.interruptions}× (last ${run.lastInterruptedAt ? formatDateTime(run.lastInterruptedAt) : "—"}), resumed from its seed`]);
+  }
   return (
     <dl className="grid grid-cols-2 gap-x-6 gap-y-2 text-sm md:grid-cols-4">
       {facts.map(([term, value]) => (
