@@ -1,3 +1,4 @@
+// `npm run soak -- --fairness`: instead of the mixed load, the fairness scenario (fairnessScenario below).
 // `npm run soak [-- --minutes N]`: a few minutes (default 3) of mixed load on loopback against a real Lotwise server
 // process on a private database — run submissions (each submitter waits for its run on the dashboard, then submits
 // the next), dashboard readers (GET /api/runs/:id) and history readers (GET /api/runs with paging and sorting) — and
@@ -276,11 +277,12 @@ async function soak(): Promise<void> {
 
     const port = await freePort();
     const origin = `http://127.0.0.1:${port}`;
-    const workers = process.env.LOTWISE_WORKERS ?? "1";
+    const fairness = process.argv.includes("--fairness");
+    const workers = process.env.LOTWISE_WORKERS ?? (fairness ? "2" : "1");
     const env: NodeJS.ProcessEnv = {
       ...process.env, NODE_ENV: "production", LOTWISE_HOST: "127.0.0.1", LOTWISE_PORT: String(port),
       LOTWISE_PUBLIC_ORIGIN: origin, LOTWISE_DB_HOST: "127.0.0.1", LOTWISE_DB_PORT: String(dbPort), LOTWISE_DB_NAME: creds.name, LOTWISE_DB_USER: creds.user,
-      LOTWISE_DB_PASSWORD: creds.password, LOTWISE_MAIL_SINK_PORT: String(sink.port), LOTWISE_WORKERS: workers, LOTWISE_MAX_RUNNING: "1",
+      LOTWISE_DB_PASSWORD: creds.password, LOTWISE_MAIL_SINK_PORT: String(sink.port), LOTWISE_WORKERS: workers, LOTWISE_MAX_RUNNING: fairness ? "4" : "1",
       LOTWISE_LOG_LEVEL: process.env.LOTWISE_LOG_LEVEL ?? "warn",
     };
     delete env.LOTWISE_SMTP_HOST; // mail goes to this script's stand-in
@@ -327,6 +329,10 @@ async function soak(): Promise<void> {
       await new Promise((res) => setTimeout(res, 100));
     }
     client.reset();
+    if (fairness) {
+      process.exitCode = await fairnessScenario(client, cookies, { revisionId, limitSetId });
+      return;
+    }
 
     // The load: 3 submitters, 24 dashboard readers, 8 history readers, each with a short pause between requests.
     soakStart = performance.now();
@@ -417,6 +423,107 @@ async function soak(): Promise<void> {
   } finally {
     await stopAll();
   }
+}
+
+// ---------------------------------------------------------------- fairness scenario (`npm run soak -- --fairness`)
+
+/** An n-section LC low-pass ladder, 50 ohm: the largest circuit the API takes has 250 sections (500 parts). */
+function ladder(sections: number) {
+  const parts: { ref: string; kind: "L" | "C"; nodes: [string, string]; value: number; tolerance: number }[] = [];
+  for (let k = 0; k < sections; k++) {
+    parts.push({ ref: `L${k + 1}`, kind: "L", nodes: [`n${k}`, `n${k + 1}`], value: 80e-9, tolerance: 0.05 });
+    parts.push({ ref: `C${k + 1}`, kind: "C", nodes: [`n${k + 1}`, "gnd"], value: 32e-12, tolerance: 0.05 });
+  }
+  return { name: `ladder of ${sections} sections`, ports: [{ name: "in", node: "n0", z0: 50 }, { name: "out", node: `n${sections}`, z0: 50 }], parts };
+}
+
+/**
+ * Fair sharing, measured: person B's small run (5,000 trials of the soak low-pass) alone, then while person A's largest
+ * allowed run executes (500 parts, 10,001 points, 10 corners, as many trials as the compute limit allows); and
+ * /api/health sampled every 50 ms while trial replays and a trials-CSV export of a large finished run are computed.
+ * Prints the times side by side and the health latencies; returns the exit code (0 when every request succeeded).
+ */
+async function fairnessScenario(client: LoadClient, cookies: string[], small: { revisionId: string; limitSetId: string }): Promise<number> {
+  const [a, b] = cookies;
+  const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+  const waitState = async (id: string, cookie: string, want: (state: string) => boolean, ms = 900_000) => {
+    const until = performance.now() + ms;
+    for (;;) {
+      const r = await client.send("poll", "GET", `/api/runs/${id}`, { cookie });
+      if (want(r.body?.run?.state)) return r.body;
+      if (performance.now() > until) throw new Error(`run ${id} still ${r.body?.run?.state}`);
+      await sleep(50);
+    }
+  };
+  const smallRun = async (seed: number) => {
+    const t = performance.now();
+    const r = await client.send("small run", "POST", "/api/runs", { cookie: b, body: { ...small, trials: 5000, seed } });
+    await waitState(r.body.run.id, b, (s) => s === "done");
+    return (performance.now() - t) / 1000;
+  };
+  const median = (xs: number[]) => [...xs].sort((x, y) => x - y)[Math.floor(xs.length / 2)];
+
+  // A's designs: the largest circuit, and a large one with a finished run to replay and export.
+  const limits = (await client.send("setup", "GET", "/api/settings/compute-limits", { cookie: a })).body.limits as { maxRunCost: number };
+  console.log(`soak: compute limit ${limits.maxRunCost.toExponential(1)} part evaluations per run`);
+  const corners = [-40, -25, -10, 0, 10, 25, 40, 55, 70, 85];
+  const mk = async (name: string, sections: number) => {
+    const d = await client.send("setup", "POST", "/api/designs", { cookie: a, body: { name, netlist: ladder(sections), sweep: { from: 1e6, to: 1e9, points: 10001, scale: "log" } } });
+    const l = await client.send("setup", "POST", `/api/designs/${d.body.design.id}/limit-sets`, { cookie: a, body: { name: "acceptance", limits: { rules: [{ metric: "s21_db", from: 1e6, to: 5e6, min: -3 }] }, lotSize: 1000 } });
+    return { revisionId: d.body.revision.id as string, limitSetId: l.body.limitSet.id as string };
+  };
+  const largest = await mk("Largest allowed circuit", 250);
+  const large = await mk("Large circuit for exports", 100);
+  // The largest allowed run: ask for a million trials, read the most the compute limit allows from the 400.
+  const refused = await client.send("largest run", "POST", "/api/runs", { cookie: a, body: { ...largest, trials: 1_000_000, seed: 5, corners }, expect: [400] });
+  const maxTrials = Number(/at most (\d+) trials/.exec(String(refused.body?.error?.fields?.trials))?.[1]);
+  if (!(maxTrials >= 1)) throw new Error(`no trial limit in ${JSON.stringify(refused.body)}`);
+  const exportRun = await client.send("setup", "POST", "/api/runs", { cookie: a, body: { ...large, trials: 40, seed: 7, corners: corners.slice(0, 3) } });
+  await waitState(exportRun.body.run.id, a, (s) => s === "done");
+
+  const alone = [await smallRun(11), await smallRun(12), await smallRun(13)];
+  const big = await client.send("largest run", "POST", "/api/runs", { cookie: a, body: { ...largest, trials: maxTrials, seed: 5, corners } });
+  if (big.status !== 201) throw new Error(`the largest allowed run was refused: ${JSON.stringify(big.body)}`);
+  await waitState(big.body.run.id, a, (s) => s === "running");
+  await sleep(3000); // its chunks are on both threads
+  const beside = [await smallRun(21), await smallRun(22), await smallRun(23)];
+  const bigNow = (await client.send("poll", "GET", `/api/runs/${big.body.run.id}`, { cookie: a })).body.run;
+
+  // Health while replays and an export compute (the big run still executing on the trial pool).
+  const health: number[] = [];
+  let sampling = true;
+  const sampler = (async () => {
+    while (sampling) {
+      const t = performance.now();
+      await client.send("health", "GET", "/api/health");
+      health.push(performance.now() - t);
+      await sleep(50);
+    }
+  })();
+  const replays: number[] = [];
+  for (let k = 0; k < 6; k++) {
+    const t = performance.now();
+    await client.send("replay", "GET", `/api/runs/${exportRun.body.run.id}/trials/${k}`, { cookie: b });
+    replays.push(performance.now() - t);
+  }
+  const tCsv = performance.now();
+  const csv = await client.send("export", "GET", `/api/runs/${exportRun.body.run.id}/trials.csv`, { cookie: b });
+  const csvSecs = (performance.now() - tCsv) / 1000;
+  sampling = false;
+  await sampler;
+  await client.send("cancel", "POST", `/api/runs/${big.body.run.id}/cancel`, { cookie: a });
+
+  const fmt = (xs: number[]) => xs.map((x) => x.toFixed(2)).join(", ");
+  console.log(`
+Lotwise fairness (2 trial threads, 1 export thread, up to 4 runs at once, one per person):`);
+  console.log(`  person B's 5,000-trial run alone:                          ${fmt(alone)} s (median ${median(alone).toFixed(2)} s)`);
+  console.log(`  the same beside person A's largest allowed run (${maxTrials} trials × 10 corners × 10,003 points × 500 parts, ${bigNow.trialsDone} done meanwhile):`);
+  console.log(`                                                            ${fmt(beside)} s (median ${median(beside).toFixed(2)} s, ${(median(beside) / median(alone)).toFixed(2)}× alone)`);
+  console.log(`  /api/health during ${replays.length} replays (${fmt(replays.map((x) => x / 1000))} s) of a 200-part × 10,003-point × 3-corner run and its trials CSV (${csvSecs.toFixed(1)} s, ${String(csv.body).length} bytes):`);
+  console.log(`    ${health.length} samples: p50 ${percentile(health, 50).toFixed(1)} ms, p99 ${percentile(health, 99).toFixed(1)} ms, max ${Math.max(...health).toFixed(1)} ms (${health.filter((x) => x > 100).length} over 100 ms)`);
+  const failed = client.summary().reduce((n, r) => n + r.failed, 0);
+  if (client.failures.length) console.log(`failures:\n  ${client.failures.join("\n  ")}`);
+  return failed === 0 ? 0 : 1;
 }
 
 if (import.meta.url === `file://${process.argv[1]}`) {
