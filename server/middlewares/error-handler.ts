@@ -52,6 +52,11 @@ function toAppError(error: unknown): AppError | null {
   if (http?.type === "charset.unsupported" || http?.type === "encoding.unsupported" || http?.type === "request.size.invalid" || http?.type === "request.aborted") {
     return new AppError("INVALID_JSON", `The request body cannot be read (${(error as Error).message}); send UTF-8 JSON.`);
   }
+  // A body that does not decompress as its Content-Encoding (gzip, deflate, br) says: not compressed at all,
+  // truncated or garbled. body-parser passes zlib's error on as a 400 without a `type`; zlib names it by its code.
+  if (isDecompressionError(error)) {
+    return new AppError("INVALID_JSON", `The request body cannot be decompressed as its Content-Encoding says (${(error as Error).message}); send it compressed that way, or uncompressed without Content-Encoding.`);
+  }
   // Express's router cannot decode a path parameter with a bad %-escape (GET /api/runs/%): a URIError with status 400.
   if (error instanceof URIError && http?.status === 400) return new AppError("VALIDATION_FAILED", "The URL holds a malformed %-escape.", { fields: { path: "malformed %-escape" } });
   if (isDatabaseDown(http)) return new AppError("DATABASE_UNAVAILABLE", "The database is not reachable right now; try again shortly.", { headers: { "Retry-After": "5" } });
@@ -59,6 +64,11 @@ function toAppError(error: unknown): AppError | null {
   // and the same request may simply be sent again.
   if (isLockConflict(http)) return new AppError("CONFLICT", "This request collided with another one changing the same records; nothing was saved. Try again.", { headers: { "Retry-After": "1" } });
   return null;
+}
+
+function isDecompressionError(error: unknown): boolean {
+  const e = error as HttpError & { errno?: unknown } | null | undefined;
+  return e?.status === 400 && e.type === undefined && typeof e.errno === "number" && typeof e.code === "string" && /^(Z_|ERR_BROTLI|ERR__ERROR_)/.test(e.code);
 }
 
 const DOWN_CODES = new Set([

@@ -4,6 +4,7 @@ import type { AuthUser } from "../auth/sessions";
 import { AppError } from "../errors";
 import { hasAnyRole, type Role } from "../../shared/roles";
 import { fieldPath } from "../../shared/schemas/field-path";
+import { findUnpairedSurrogate, UNPAIRED_SURROGATE_MESSAGE } from "../../shared/schemas/well-formed-text";
 
 /** Who may call a route: anyone, any signed-in person, or holders of at least one of the roles. */
 export type Access = "public" | "signed-in" | readonly Role[];
@@ -69,8 +70,17 @@ function authorize(access: Access, user: AuthUser | null): void {
   if (!hasAnyRole(user.roles, access)) throw new AppError("FORBIDDEN", `This needs the ${access.join(" or ")} role.`);
 }
 
-/** Parses input with a zod schema; on failure a 400 whose message names the first field and whose `fields` name all. */
+/**
+ * Parses input with a zod schema; on failure a 400 whose message names the first field and whose `fields` name all.
+ * Every body, query and upload field passes here, so this is also where text that is not valid Unicode (a lone
+ * UTF-16 surrogate, which JSON can spell) is refused, before anything could store it.
+ */
 export function parseInput<T>(schema: z.ZodType<T>, value: unknown, where: "body" | "query" | "upload"): T {
+  const unpaired = findUnpairedSurrogate(value);
+  if (unpaired) {
+    const path = unpaired.length ? fieldPath(unpaired) : where;
+    throw new AppError("VALIDATION_FAILED", `${path}: ${UNPAIRED_SURROGATE_MESSAGE}`, { fields: { [path]: UNPAIRED_SURROGATE_MESSAGE } });
+  }
   const parsed = schema.safeParse(value);
   if (parsed.success) return parsed.data;
   const fields: Record<string, string> = {};

@@ -76,7 +76,8 @@ export function authRoutes(ctx: AppContext): ApiRouter {
   api.post("/request-reset", {
     access: "public",
     body: requestResetSchema,
-    handler: async ({ res, body }) => {
+    handler: async ({ req, res, body }) => {
+      await ctx.limiter.consumeResetRequest(body.email, req.socket.remoteAddress ?? "unknown");
       await requestPasswordReset(ctx, body.email);
       res.status(202).json({ ok: true });
     },

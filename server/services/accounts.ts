@@ -1,4 +1,5 @@
 import { randomUUID } from "node:crypto";
+import { setTimeout as setTimeoutPromise } from "node:timers/promises";
 import { IsNull, MoreThan, type EntityManager } from "typeorm";
 import { hashPassword } from "../auth/passwords";
 import { createToken, hashToken, INVITATION_LIFETIME_MS, RESET_LIFETIME_MS } from "../auth/tokens";
@@ -35,7 +36,24 @@ export async function inviteMember(ctx: AppContext, inviter: { id: string; name:
     ctx.log.error("mail_failed", { kind: "invitation", message: (error as Error).message });
     throw new AppError("MAIL_FAILED", "The invitation mail could not be sent, so no invitation was stored.");
   }
-  return (await repo.findOneOrFail({ where: { id: invitation.id }, relations: { invitedBy: true } }));
+  const stored = await repo.findOneOrFail({ where: { id: invitation.id }, relations: { invitedBy: true } });
+  await revokeOlderInvitations(ctx.dataSource.manager, stored);
+  return stored;
+}
+
+/**
+ * Only the newest invitation to an address works: once its mail is out, the older open ones are revoked (an
+ * earlier mail may sit in a shared or forwarded mailbox). "Older" is by (created_at, id), a total order, so two
+ * invitations sent at the same moment still leave exactly one open.
+ */
+async function revokeOlderInvitations(manager: EntityManager, newest: Invitation): Promise<void> {
+  await manager
+    .createQueryBuilder()
+    .update(Invitation)
+    .set({ revokedAt: new Date() })
+    .where("email = :email AND accepted_at IS NULL AND revoked_at IS NULL", { email: newest.email })
+    .andWhere("(created_at < :createdAt OR (created_at = :createdAt AND id < :id))", { createdAt: newest.createdAt, id: newest.id })
+    .execute();
 }
 
 /** The open invitation behind a token, or TOKEN_INVALID. */
@@ -55,7 +73,7 @@ export async function acceptInvitation(ctx: AppContext, token: string, name: str
   const passwordHash = await hashPassword(password);
   return ctx.dataSource.transaction(async (manager) => {
     const invitation = await findOpenInvitation(manager, token);
-    const claimed = await manager.getRepository(Invitation).update({ id: invitation.id, acceptedAt: IsNull() }, { acceptedAt: new Date() });
+    const claimed = await manager.getRepository(Invitation).update({ id: invitation.id, acceptedAt: IsNull(), revokedAt: IsNull() }, { acceptedAt: new Date() });
     if (claimed.affected !== 1) throw invalidToken();
     if (await manager.getRepository(User).existsBy({ email: invitation.email })) throw invalidToken();
     const user = manager.getRepository(User).create({ id: randomUUID(), email: invitation.email, name, passwordHash, roles: invitation.roles, active: true });
@@ -64,13 +82,36 @@ export async function acceptInvitation(ctx: AppContext, token: string, name: str
   });
 }
 
-/** Mails a reset link when an active account has this address; says nothing either way. */
+/**
+ * How long every answer to a reset request takes, whether or not the address belongs to anyone. The work (look-up,
+ * token, mail: about 0.1 s) runs off the response path, so the answer's time cannot tell who has an account.
+ */
+export const RESET_REQUEST_ANSWER_MS = 500;
+
+/**
+ * Answers a reset request after exactly {@link RESET_REQUEST_ANSWER_MS}; meanwhile, when an active account has this
+ * address, a new reset link is issued (ending that person's older ones) and mailed. Says nothing either way; a
+ * failure of that work is logged, never answered.
+ */
 export async function requestPasswordReset(ctx: AppContext, email: string): Promise<void> {
+  const answerAt = setTimeoutPromise(RESET_REQUEST_ANSWER_MS);
+  issuePasswordReset(ctx, email).catch((error: unknown) => {
+    ctx.log.error("password_reset_failed", { error: (error as Error)?.name, message: (error as Error)?.message });
+  });
+  await answerAt;
+}
+
+async function issuePasswordReset(ctx: AppContext, email: string): Promise<void> {
   const user = await ctx.dataSource.getRepository(User).findOneBy({ email, active: true });
   if (!user) return;
   const { token, tokenHash } = createToken();
   const expiresAt = new Date(Date.now() + RESET_LIFETIME_MS);
-  await ctx.dataSource.getRepository(PasswordReset).insert({ id: randomUUID(), userId: user.id, tokenHash, expiresAt, usedAt: null });
+  await ctx.dataSource.transaction(async (manager) => {
+    // The person's row is the lock both here and in resetPassword, so two requests at once cannot both leave a live link.
+    await lockUser(manager, user.id);
+    await manager.getRepository(PasswordReset).delete({ userId: user.id, usedAt: IsNull() });
+    await manager.getRepository(PasswordReset).insert({ id: randomUUID(), userId: user.id, tokenHash, expiresAt, usedAt: null });
+  });
   try {
     await ctx.mailer.send(passwordResetMail({ to: user.email, expiresAt, link: `${ctx.config.publicOrigin}/reset-password/${token}` }));
   } catch (error) {
@@ -78,16 +119,27 @@ export async function requestPasswordReset(ctx: AppContext, email: string): Prom
   }
 }
 
-/** Sets a new password from a reset token (single use) and signs the account out everywhere. */
+/**
+ * Sets a new password from a reset token (single use), ends every other open reset link of the person, and signs
+ * the account out everywhere.
+ */
 export async function resetPassword(ctx: AppContext, token: string, password: string): Promise<void> {
   const passwordHash = await hashPassword(password);
   const userId = await ctx.dataSource.transaction(async (manager) => {
-    const reset = await manager.getRepository(PasswordReset).findOneBy({ tokenHash: hashToken(token), usedAt: IsNull(), expiresAt: MoreThan(new Date()) });
+    const resets = manager.getRepository(PasswordReset);
+    const reset = await resets.findOneBy({ tokenHash: hashToken(token), usedAt: IsNull(), expiresAt: MoreThan(new Date()) });
     if (!reset) throw invalidToken();
-    const claimed = await manager.getRepository(PasswordReset).update({ id: reset.id, usedAt: IsNull() }, { usedAt: new Date() });
+    await lockUser(manager, reset.userId);
+    const claimed = await resets.update({ id: reset.id, usedAt: IsNull() }, { usedAt: new Date() });
     if (claimed.affected !== 1) throw invalidToken();
+    await resets.delete({ userId: reset.userId, usedAt: IsNull() });
     await manager.getRepository(User).update({ id: reset.userId }, { passwordHash });
     return reset.userId;
   });
   await ctx.sessions.invalidateAllFor(userId);
+}
+
+/** SELECT … FOR UPDATE on the person's row, held until the transaction ends. */
+async function lockUser(manager: EntityManager, userId: string): Promise<void> {
+  await manager.getRepository(User).findOne({ where: { id: userId }, lock: { mode: "pessimistic_write" } });
 }

@@ -9,6 +9,7 @@ import multer from "multer";
 import { AppError } from "../errors";
 import { isFormatError } from "../../shared/formats/format-error";
 import { fieldPath } from "../../shared/schemas/field-path";
+import { findUnpairedSurrogate, UNPAIRED_SURROGATE_MESSAGE } from "../../shared/schemas/well-formed-text";
 
 // VARIABLES //
 
@@ -95,11 +96,19 @@ export function parseJsonWithLines(text: string): { value: unknown; lines: Map<s
   s.value("", 0);
   s.ws();
   if (s.i < text.length) throw s.fail("unexpected text after the JSON value");
+  let value: unknown;
   try {
-    return { value: JSON.parse(text) as unknown, lines };
+    value = JSON.parse(text) as unknown;
   } catch (error) {
     throw invalidFile(`not valid JSON (${(error as Error).message})`, 1, "json");
   }
+  // "\ud800" is valid JSON but not Unicode text; MariaDB's JSON columns refuse it.
+  const unpaired = findUnpairedSurrogate(value);
+  if (unpaired) {
+    const path = fieldPath(unpaired);
+    throw invalidFile(UNPAIRED_SURROGATE_MESSAGE, lineOf(lines, path) ?? 1, path || "json");
+  }
+  return { value, lines };
 }
 
 /** Line of the nearest enclosing path that was seen (e.g. parts[2] for parts[2].tolerance when that key is absent). */

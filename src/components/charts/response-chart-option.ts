@@ -1,4 +1,5 @@
 import { formatSi } from "@shared/units";
+import { escapeHtml } from "@/lib/escape-html";
 import { CHART_COLORS, type AxisSpec, type ChartMaskRect, type ResponseChartProps } from "@/components/charts/response-chart-types";
 
 type Extent = { min: number; max: number };
@@ -62,6 +63,20 @@ function maskAreas(mask: ChartMaskRect[], extent: Extent) {
   return areas;
 }
 
+/** One hovered point as ECharts hands it to an axis tooltip's formatter (`marker` is ECharts' own HTML). */
+export type TooltipItem = { seriesId: string; seriesName: string; marker: string; value: Pair };
+
+/**
+ * The tooltip of the response chart: frequency, then each curve's name and value. ECharts inserts the result as
+ * HTML, so every name is escaped (names come from people: measured responses are named after their files).
+ */
+export function formatResponseTooltip(items: TooltipItem[]): string {
+  const lines = items.filter((p) => p.seriesId.startsWith("line-") && p.value[1] !== null);
+  if (!lines.length) return "";
+  const head = escapeHtml(formatSi(lines[0].value[0], "Hz", 4));
+  return [head, ...lines.map((p) => `${p.marker} ${escapeHtml(p.seriesName)}: ${(p.value[1] as number).toFixed(2)}`)].join("<br/>");
+}
+
 /** The ECharts option for a {@link ResponseChartProps}. */
 export function buildChartOption(props: ResponseChartProps) {
   const usesRight = [...props.series, ...(props.bands ?? []), ...(props.mask ?? [])].some((s) => s.axis === 1);
@@ -114,12 +129,7 @@ export function buildChartOption(props: ResponseChartProps) {
       backgroundColor: "#1a222e",
       borderColor: CHART_COLORS.grid,
       textStyle: { color: CHART_COLORS.paper, fontSize: 11 },
-      formatter: (items: Array<{ seriesId: string; seriesName: string; marker: string; value: Pair }>) => {
-        const lines = items.filter((p) => p.seriesId.startsWith("line-") && p.value[1] !== null);
-        if (!lines.length) return "";
-        const head = formatSi(lines[0].value[0], "Hz", 4);
-        return [head, ...lines.map((p) => `${p.marker} ${p.seriesName}: ${(p.value[1] as number).toFixed(2)}`)].join("<br/>");
-      },
+      formatter: formatResponseTooltip,
     },
     xAxis: {
       type: "log", logBase: 10, min: x.min, max: x.max, name: "Frequency (Hz)", nameGap: 26, nameLocation: "middle", ...axisStyle,
