@@ -85,8 +85,13 @@ export function parseInput<T>(schema: z.ZodType<T>, value: unknown, where: "body
   if (parsed.success) return parsed.data;
   const fields: Record<string, string> = {};
   for (const issue of parsed.error.issues) {
-    const path = issue.path.length ? fieldPath(issue.path) : where;
-    fields[path] ??= issue.message;
+    // A field the server does not take (or owns) is named by its own path, not its parent's: `sweepId`, not `body`.
+    const keys = issue.code === "unrecognized_keys" ? issue.keys : [undefined];
+    for (const key of keys) {
+      const at = key === undefined ? issue.path : [...issue.path, key];
+      const path = at.length ? fieldPath(at) : where;
+      fields[path] ??= key === undefined ? issue.message : `${key} is not a field this request takes`;
+    }
   }
   const [firstPath, firstMessage] = Object.entries(fields)[0];
   throw new AppError("VALIDATION_FAILED", `${firstPath}: ${firstMessage}`, { fields });
