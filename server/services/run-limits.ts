@@ -37,6 +37,7 @@ export function planShape(plan: RunPlan, trials = plan.options.trials): CostShap
 }
 
 const fmt = (x: number) => x.toExponential(2).replace("e+", "e");
+const n = (x: number) => x.toLocaleString("en-US");
 
 /**
  * Refuses a run whose cost is over the limit, naming `trials` (the field the person sets) with what the circuit costs.
@@ -48,7 +49,7 @@ export function checkRunCost(shape: CostShape, limits: ComputeLimits): void {
   const perTrial = computeCost({ ...shape, trials: 1 });
   const most = Math.max(0, Math.floor(limits.maxRunCost / perTrial));
   const message =
-    `this run would cost ${fmt(cost)} part evaluations (${shape.trials} trials × ${shape.corners} corner(s) × ${shape.points} frequency points × ${shape.parts} parts); ` +
+    `this run would cost ${fmt(cost)} part evaluations (${n(shape.trials)} trials × ${shape.corners} corner${shape.corners === 1 ? "" : "s"} × ${n(shape.points)} frequency points × ${shape.parts} parts); ` +
     `the limit is ${fmt(limits.maxRunCost)}` + (most >= 1 ? `, so at most ${most} trials for this circuit` : "; fewer points, corners or parts are needed") + ".";
   throw new AppError("RUN_TOO_COSTLY", `trials: ${message}`, { fields: { trials: message } });
 }
@@ -60,6 +61,6 @@ export function checkRunCost(shape: CostShape, limits: ComputeLimits): void {
 export function checkExportCost(plan: RunPlan, trials: number, limits: ComputeLimits): void {
   const cost = computeCost(planShape(plan, trials));
   if (cost <= limits.maxExportCost) return;
-  const message = `exporting ${trials} trials of this run would cost ${fmt(cost)} part evaluations; the export limit is ${fmt(limits.maxExportCost)}.`;
+  const message = `exporting ${n(trials)} trials of this run would cost ${fmt(cost)} part evaluations; the export limit is ${fmt(limits.maxExportCost)}.`;
   throw new AppError("RUN_TOO_COSTLY", `trials: ${message}`, { fields: { trials: message } });
 }
