@@ -14,23 +14,23 @@ export const roleListSchema = z
   .min(1, { message: "needs at least one role" })
   .transform((roles) => [...new Set(roles)]);
 
-export const signInSchema = z.object({
+export const signInSchema = z.strictObject({
   email: emailSchema,
   password: z.string().min(1, { message: "is required" }).max(256),
 });
 export type SignInInput = z.infer<typeof signInSchema>;
 
-export const acceptInvitationSchema = z.object({
+export const acceptInvitationSchema = z.strictObject({
   token: z.string().min(20).max(200),
   name: z.string().trim().min(1, { message: "is required" }).max(120),
   password: newPasswordSchema,
 });
 export type AcceptInvitationInput = z.infer<typeof acceptInvitationSchema>;
 
-export const requestResetSchema = z.object({ email: emailSchema });
+export const requestResetSchema = z.strictObject({ email: emailSchema });
 export type RequestResetInput = z.infer<typeof requestResetSchema>;
 
-export const resetPasswordSchema = z.object({
+export const resetPasswordSchema = z.strictObject({
   token: z.string().min(20).max(200),
   password: newPasswordSchema,
 });

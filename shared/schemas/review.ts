@@ -81,25 +81,25 @@ export const compareQuerySchema = z.object({
 });
 export type CompareQuery = z.infer<typeof compareQuerySchema>;
 
-export const commentBodySchema = z.object({
+export const commentBodySchema = z.strictObject({
   body: z.string({ message: "body is required" }).trim().min(1, { message: "body must not be empty" }).max(4000, { message: "body is at most 4000 characters" }),
 });
 export type CommentBody = z.infer<typeof commentBodySchema>;
 
-export const reviewActionSchema = z.object({
+export const reviewActionSchema = z.strictObject({
   action: z.enum(REVIEW_ACTIONS, { message: `action must be one of ${REVIEW_ACTIONS.join(", ")}` }),
   comment: z.string().trim().max(2000, { message: "comment is at most 2000 characters" }).optional(),
 });
 export type ReviewActionInput = z.infer<typeof reviewActionSchema>;
 
-const assignmentSchema = z.object({
+const assignmentSchema = z.strictObject({
   label: z.string({ message: "label is required" }).trim().min(1, { message: "label must not be empty" }).max(160, { message: "label is at most 160 characters" }),
   /** part ref → grade code of the catalogue (checked against the revision and the catalogue by the service) */
   gradeOverrides: partRecord(z.string().min(1).max(40), z.string().min(1, { message: "grade code must not be empty" }).max(40)),
 });
 
 /** `POST /api/sweeps`: one run per assignment, all with the same seed. */
-export const createSweepSchema = z.object({
+export const createSweepSchema = z.strictObject({
   revisionId: uuid("revisionId"),
   limitSetId: uuid("limitSetId"),
   trials: z.number({ message: "trials must be a number" }).int({ message: "trials must be an integer" }).min(1, { message: "trials must be ≥ 1" }).max(1_000_000, { message: "trials must be ≤ 1000000" }),

@@ -1,11 +1,11 @@
 import { z } from "zod";
 import { emailSchema, roleListSchema } from "./auth";
 
-export const createInvitationSchema = z.object({ email: emailSchema, roles: roleListSchema });
+export const createInvitationSchema = z.strictObject({ email: emailSchema, roles: roleListSchema });
 export type CreateInvitationInput = z.infer<typeof createInvitationSchema>;
 
 export const updateMemberSchema = z
-  .object({
+  .strictObject({
     name: z.string().trim().min(1, { message: "is required" }).max(120).optional(),
     roles: roleListSchema.optional(),
     active: z.boolean().optional(),

@@ -115,6 +115,28 @@ describe("a run's sweep is the server's to set (fault 2)", () => {
   });
 });
 
+describe("fields the server owns are refused, not ignored", () => {
+  // Before: these bodies were parsed leniently and the extra field silently dropped (201/200).
+  it("names the field in a 400 on comments, reviews, sweeps, invitations and member changes", async () => {
+    const f = await makeRunFixture(t, analyst.user);
+    const run = await insertRun(t, analyst.user, "done", 10);
+    const cases: [Agent, "post" | "patch", string, Record<string, unknown>, string][] = [
+      [analyst.agent, "post", `/api/runs/${run.id}/comments`, { body: "fine", authorId: admin.user.id }, "authorId"],
+      [designer.agent, "post", `/api/revisions/${f.revision.id}/review`, { action: "request", actorId: reviewer.user.id }, "actorId"],
+      [analyst.agent, "post", "/api/sweeps", { revisionId: f.revision.id, limitSetId: f.limitSet.id, trials: 10, targetYield: 0.5, createdById: admin.user.id, assignments: [{ label: "a", gradeOverrides: {} }] }, "createdById"],
+      [analyst.agent, "post", "/api/sweeps", { revisionId: f.revision.id, limitSetId: f.limitSet.id, trials: 10, targetYield: 0.5, assignments: [{ label: "a", gradeOverrides: {}, sweepId: randomUUID() }] }, "assignments[0].sweepId"],
+      [admin.agent, "post", "/api/team/invitations", { email: "x-owned@lotwise.test", roles: ["analyst"], invitedById: analyst.user.id }, "invitedById"],
+      [admin.agent, "patch", `/api/team/members/${planner.user.id}`, { name: "P", email: "other@lotwise.test" }, "email"],
+    ];
+    for (const [agent, method, path, body, field] of cases) {
+      const res = await agent[method](path).set("Origin", ORIGIN).send(body);
+      expect(res.status, `${method} ${path}`).toBe(400);
+      expect(res.body.error.fields, `${method} ${path}`).toHaveProperty([field]);
+    }
+    expect(await t.ctx.dataSource.getRepository(GradeSweep).countBy({ revisionId: f.revision.id })).toBe(0);
+  });
+});
+
 describe("validation gaps (fault 9)", () => {
   // Before: each of these was stored (201/200) and failed later, in the queue or the worker.
   it("refuses an absolute tolerance as large as the value when the revision is saved", async () => {
