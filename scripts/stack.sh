@@ -45,4 +45,6 @@ if [ "$mode" = "soak" ]; then
   exec node_modules/.bin/tsx scripts/soak.ts "$@"
 fi
 
-exec node_modules/.bin/tsx scripts/stack.ts "$@"
+# Node itself with tsx's loader, not the tsx command: that wrapper relays Ctrl-C to its child and kills it (SIGKILL)
+# when the child does not acknowledge within ~60 ms (a busy event loop), which would leave MariaDB running.
+exec node --import tsx scripts/stack.ts "$@"

@@ -14,8 +14,9 @@
  *   worker's stalled-job check moves it back to waiting and some worker runs it again (same trials, same
  *   aggregate). A chunk that fails `CHUNK_ATTEMPTS` times fails its run with WORKER_FAILED and the reason.
  * - Outages: while Redis cannot be reached the run waits; after `outageMs` (default 60 s) without Redis the
- *   run fails with QUEUE_UNAVAILABLE, and after `noWorkersMs` (default 10 min) with no worker process connected
- *   it fails with NO_WORKERS — never a silent hang. Its inputs stay stored in MariaDB either way.
+ *   run fails with QUEUE_UNAVAILABLE (only a command Redis answered ends an outage: a pass that asked it nothing
+ *   does not), and after `noWorkersMs` (default 10 min) with no worker process connected it fails with
+ *   NO_WORKERS — never a silent hang. Its inputs stay stored in MariaDB either way.
  * - Cancel: the run's waiting chunks are removed; chunks already running finish and are dropped, then the
  *   batch is removed.
  */
@@ -156,20 +157,28 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
       children: only.map(chunkJob),
     });
 
-    async function onePass(gen: number): Promise<void> {
+    /**
+     * One look at Redis. Resolves true when Redis answered at least one command in it, false when the pass asked it
+     * nothing (no sweep due and no chunk poked): only an answer shows Redis reachable, so only that ends an outage.
+     */
+    async function onePass(gen: number): Promise<boolean> {
       const current = () => gen === pass && !signal.aborted && !closed;
+      let answered = false;
       if (!added) {
         // A batch left by an earlier start of this run is reused, unless a chunk of it failed for good (BullMQ marks
         // the parent with a deferred failure, as no worker takes parents): then it is tried afresh.
         const old = await batches.getJob(parentId);
+        answered = true;
         const reuse = old !== undefined && !old.deferredFailure && (await old.getState()) !== "failed";
-        if (!current()) return;
+        if (!current()) return answered;
         if (old && !reuse) await old.remove(); // "locked" while a chunk of it still runs: tried again next pass
-        if (!current()) return;
+        if (!current()) return answered;
         if (!reuse) await flows.add(flow());
         added = true;
       }
-      const sweep = Date.now() - lastSweep >= pollMs;
+      // While Redis is away every pass is a full sweep: each one then asks Redis, so the outage is measured by
+      // real attempts and its end is seen within one pass.
+      const sweep = redisDownSince !== null || Date.now() - lastSweep >= pollMs;
       if (sweep) lastSweep = Date.now();
       const look = sweep ? [...open] : [...poked].filter((id) => open.has(id));
       poked.clear();
@@ -178,7 +187,8 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
       for (let k = 0; k < look.length; k += 100) {
         const slice = look.slice(k, k + 100);
         const states = await Promise.all(slice.map((id) => chunks.getJobState(id)));
-        if (!current()) return;
+        answered = true;
+        if (!current()) return answered;
         for (let j = 0; j < slice.length; j++) {
           const id = slice[j];
           const state = states[j];
@@ -190,7 +200,7 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
           // The state first, then (once completed, which it stays) the job with its return value: a job read first
           // could complete between the two reads and show no return value yet.
           const job = await chunks.getJob(id);
-          if (!current()) return;
+          if (!current()) return answered;
           if (!job) {
             missing.push(id);
           } else if (state === "completed" && open.has(id)) {
@@ -203,18 +213,20 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
           }
         }
       }
-      if (open.size === 0 || !sweep) return;
+      if (open.size === 0 || !sweep) return answered;
       const gone = missing.filter((id) => open.has(id));
       if (gone.length > 0) {
         // Redis lost these chunks (restarted without its data, or an earlier clean-up removed them): add them again.
         const parent = await batches.getJob(parentId);
-        if (!current()) return;
+        answered = true;
+        if (!current()) return answered;
         log.warn("chunk_batch_missing_readded", { runId, batch: parentId, missing: gone.length, parent: parent ? "kept" : "lost" });
         if (parent) await chunks.addBulk(gone.map((id) => { const { name, data, opts } = chunkJob(id); return { name, data, opts: { ...opts, failParentOnFailure: false } }; }));
         else await flows.add(flow(gone));
       }
       const workers = await workerCount();
-      if (!current()) return;
+      answered = true;
+      if (!current()) return answered;
       noWorkersSince = workers !== 0 ? null : (noWorkersSince ?? Date.now());
       if (noWorkersSince !== null && Date.now() - noWorkersSince > noWorkersMs) {
         throw new WorkerFailure(`No Lotwise worker process has been connected to Redis at ${where} for ${Math.round(noWorkersMs / 1000)} s (start one with \`npm run worker\`)`, { code: "NO_WORKERS" });
@@ -223,6 +235,7 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
         lastTrim = Date.now();
         await chunks.trimEvents(EVENTS_KEPT); // the stream's length setting is lost if Redis lost its data
       }
+      return answered;
     }
 
     let stopping = false;
@@ -232,12 +245,15 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
         if (closed) throw new EngineError("CANCELLED", "dispatcher closed");
         const gen = ++pass;
         try {
-          await within(onePass(gen), passTimeoutMs, signal);
-          listen();
+          const answered = await within(onePass(gen), passTimeoutMs, signal);
+          // A pass that asked Redis nothing proves nothing: it neither ends an outage nor starts QueueEvents.
+          if (answered) {
+            listen();
+            if (redisDownSince !== null) log.info("redis_reachable_again", { runId, redis: where, afterMs: Date.now() - redisDownSince });
+            redisDownSince = null;
+            strangeErrors = 0;
+          }
           if (open.size === 0) break;
-          if (redisDownSince !== null) log.info("redis_reachable_again", { runId, redis: where, afterMs: Date.now() - redisDownSince });
-          redisDownSince = null;
-          strangeErrors = 0;
         } catch (err) {
           pass++; // whatever that pass still does, it accepts nothing
           if (err instanceof EngineError || err instanceof WorkerFailure) throw err;
