@@ -305,6 +305,43 @@ describe("replays and exports run off the request thread (fault 3)", () => {
   }, 60_000);
 });
 
+describe("a slowly read trials CSV (fault 12, the listener warning)", () => {
+  // Before: every back-pressure wait added a `close` listener that stayed, and a slow download logged MaxListenersExceededWarning.
+  it("streams 100,000 rows to a slow reader with correct back-pressure and no listener left behind", async () => {
+    const run = await insertRun(t, analyst.user, "done", 100_000);
+    const warnings: string[] = [];
+    const onWarning = (w: Error) => warnings.push(`${w.name}: ${w.message}`);
+    process.on("warning", onWarning);
+    const server = http.createServer(t.app).listen(0, "127.0.0.1");
+    await new Promise((r) => server.once("listening", r));
+    try {
+      const port = (server.address() as AddressInfo).port;
+      const cookie = await signInCookie(analyst.user);
+      const { rows, pauses } = await new Promise<{ rows: number; pauses: number }>((resolve, reject) => {
+        http.get({ host: "127.0.0.1", port, path: `/api/runs/${run.id}/trials.csv`, headers: { cookie } }, (res) => {
+          let rows = 0;
+          let pauses = 0;
+          res.on("data", (c: Buffer) => {
+            for (const b of c) if (b === 10) rows++;
+            res.pause(); // a slow reader: the server's socket fills and it must wait for `drain`, many times
+            pauses++;
+            setTimeout(() => res.resume(), 2);
+          });
+          res.on("end", () => resolve({ rows, pauses }));
+          res.on("error", reject);
+        }).on("error", reject);
+      });
+      console.log(`slow CSV reader: ${rows - 1} rows in ${pauses} bursts`);
+      expect(rows).toBe(100_001);
+      await new Promise((r) => setTimeout(r, 100)); // warnings are emitted on the next tick
+      expect(warnings.filter((w) => w.includes("MaxListeners"))).toEqual([]);
+    } finally {
+      process.off("warning", onWarning);
+      server.close();
+    }
+  }, 90_000);
+});
+
 async function signInCookie(user: User): Promise<string> {
   const res = await request(t.app).post("/api/auth/sign-in").set("Origin", ORIGIN).send({ email: user.email, password: TEST_PASSWORD }).expect(200);
   return (res.headers["set-cookie"] as unknown as string[]).map((c) => c.split(";")[0]).join("; ");
