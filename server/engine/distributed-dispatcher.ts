@@ -24,7 +24,7 @@ import { randomUUID } from "node:crypto";
 import { FlowProducer, Queue, QueueEvents } from "bullmq";
 import type { TrialAggregate } from "../../shared/engine/aggregate";
 import { EngineError } from "../../shared/engine/errors";
-import { driveRun, validateChunkSize, type ChunkTask } from "../../shared/engine/monte-carlo";
+import { costBoundedChunkSize, driveRun, validateChunkSize, type ChunkTask } from "../../shared/engine/monte-carlo";
 import { planRun } from "../../shared/engine/run-plan";
 import { createLogger, type Logger } from "../logger";
 import {
@@ -55,6 +55,11 @@ export interface DistributedDispatcher extends RunDispatcher {
 const KEEP_FINISHED = { age: 24 * 3600 };
 /** Events kept in the chunk queue's stream (BullMQ's default of 10,000 would hold gigabytes of chunk results). */
 export const EVENTS_KEPT = 100;
+
+/** A chunk's BullMQ priority: its place in its run, 1-based (1 … 2^21, BullMQ's range; lower is taken first). */
+function chunkPriority(c: { start: number; count: number }): number {
+  return Math.min(2 ** 21, 1 + Math.floor(c.start / Math.max(1, c.count)));
+}
 
 export function createDistributedDispatcher(options: DistributedDispatcherOptions): DistributedDispatcher {
   const log = options.log ?? createLogger();
@@ -146,7 +151,9 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
         name: "chunk",
         queueName: CHUNK_QUEUE,
         data: { runId, task: { ...base, start: c.start, count: c.count } } satisfies ChunkJobData,
-        opts: { jobId: id, attempts: CHUNK_ATTEMPTS, backoff: { type: "fixed" as const, delay: 500 }, failParentOnFailure: true, removeOnComplete: KEEP_FINISHED, removeOnFail: KEEP_FINISHED },
+        // Fair sharing between runs: a chunk's priority is its place in its run (1 for the first), so a run that starts
+        // beside a long one has its first chunks taken before the long run's later ones (BullMQ takes the lowest first).
+        opts: { jobId: id, priority: chunkPriority(c), attempts: CHUNK_ATTEMPTS, backoff: { type: "fixed" as const, delay: 500 }, failParentOnFailure: true, removeOnComplete: KEEP_FINISHED, removeOnFail: KEEP_FINISHED },
       };
     };
     const flow = (only: readonly string[] = ids) => ({
@@ -337,7 +344,7 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
       const abort = () => local.abort(controls.signal?.reason);
       controls.signal?.addEventListener("abort", abort, { once: true });
       if (controls.signal?.aborted) abort();
-      const chunkSize = controls.chunkSize ?? defaultChunk;
+      const chunkSize = costBoundedChunkSize(plan, controls.chunkSize ?? defaultChunk);
       try {
         return await driveRun(plan, (batch, accept) => runBatch(runId, base, batch, accept, local.signal), {
           chunkSize: plan.options.targetHalfWidth === null ? chunkSize : Math.min(chunkSize, Math.ceil(plan.options.batchSize / 4)),

@@ -180,3 +180,24 @@ describe("a reference check of the comparison itself", () => {
     }
   }, 30_000);
 });
+
+describe("distributed mode: fair sharing between runs", () => {
+  // Before: chunks were taken from Redis first come, first served, so a small run waited behind every chunk of a long one.
+  it("a small run started beside a long one has its chunks taken first and finishes long before it", async () => {
+    const own = dispatcher ? null : createDistributedDispatcher({ redisUrl: redis.url, pollMs: 200, outageMs: 20_000, log }); // when run alone
+    const d = dispatcher ?? own!;
+    const options = (trials: number, seed: number): RunOptions => ({ trials, seed, sweep: LOWPASS_SWEEP });
+    let longDone = 0;
+    let longDoneAtSmallEnd = -1;
+    const long = d.runMonteCarlo(LOWPASS, LOWPASS_LIMITS, options(150_000, 31), { onProgress: (p) => (longDone = p.done) });
+    await until("the long run's first chunk", async () => longDone > 0, 30_000);
+    const small = await d.runMonteCarlo(LOWPASS, LOWPASS_LIMITS, options(7_500, 32));
+    longDoneAtSmallEnd = longDone;
+    const longResult = await long;
+    console.log(`distributed fair share: the small run (3 chunks) finished with the long run at ${longDoneAtSmallEnd} of 150000 trials`);
+    expect(small.trials).toBe(7_500);
+    expect(longResult.trials).toBe(150_000);
+    expect(longDoneAtSmallEnd).toBeLessThan(75_000);
+    await own?.close();
+  }, 120_000);
+});
