@@ -44,7 +44,7 @@ export async function createContext(config: ServerConfig, options: { log?: Logge
   const dataSource = createDataSource(config.db);
   const ran = await openAndMigrate(dataSource);
   if (ran > 0) log.info("migrations_applied", { count: ran });
-  const sessions = createSessionService(config.db, { secure: config.env === "production" });
+  const sessions = createSessionService(dataSource, { secure: config.env === "production" });
   const mailer = createMailer(config);
   const dispatcher = createDispatcher(config, log);
   if (dispatcher.mode === "distributed") log.info("run_dispatch_distributed", { redis: redactUrl(config.redisUrl!) });

@@ -8,6 +8,7 @@ export function loadSession(sessions: SessionService) {
     if (check.setCookie) res.append("Set-Cookie", check.setCookie);
     res.locals.user = check.user;
     res.locals.sessionId = check.sessionId;
+    res.locals.sessionToken = check.token;
     next();
   };
 }

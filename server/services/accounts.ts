@@ -106,12 +106,23 @@ async function issuePasswordReset(ctx: AppContext, email: string): Promise<void>
   if (!user) return;
   const { token, tokenHash } = createToken();
   const expiresAt = new Date(Date.now() + RESET_LIFETIME_MS);
-  await ctx.dataSource.transaction(async (manager) => {
-    // The person's row is the lock both here and in resetPassword, so two requests at once cannot both leave a live link.
-    await lockUser(manager, user.id);
-    await manager.getRepository(PasswordReset).delete({ userId: user.id, usedAt: IsNull() });
-    await manager.getRepository(PasswordReset).insert({ id: randomUUID(), userId: user.id, tokenHash, expiresAt, usedAt: null });
-  });
+  // Requests for different people can still deadlock on the index gaps of password_reset (InnoDB then rolls one
+  // back): that one is simply tried again, a few times.
+  for (let attempt = 1; ; attempt++) {
+    try {
+      await ctx.dataSource.transaction(async (manager) => {
+        // The person's row is the lock both here and in resetPassword, so two requests at once cannot both leave a live link.
+        await lockUser(manager, user.id);
+        await manager.getRepository(PasswordReset).delete({ userId: user.id, usedAt: IsNull() });
+        await manager.getRepository(PasswordReset).insert({ id: randomUUID(), userId: user.id, tokenHash, expiresAt, usedAt: null });
+      });
+      break;
+    } catch (error) {
+      const deadlock = (error as { errno?: number; driverError?: { errno?: number } })?.driverError?.errno === 1213 || (error as { errno?: number })?.errno === 1213;
+      if (!deadlock || attempt >= 5) throw error;
+      await setTimeoutPromise(20 * attempt);
+    }
+  }
   try {
     await ctx.mailer.send(passwordResetMail({ to: user.email, expiresAt, link: `${ctx.config.publicOrigin}/reset-password/${token}` }));
   } catch (error) {

@@ -88,11 +88,13 @@ interface Active {
   launcherId: string;
 }
 
-/** The stored JSON of a finished run: the engine result made JSON-safe, plus the grid and nominal curves. */
+/**
+ * The stored JSON of a finished run: the engine result made JSON-safe. The frequency grid and the nominal curves are
+ * in it once, as `envelopes.freqs` and each `envelopes.series[].nominal` (rows stored before 2026-12 also repeated them
+ * as top-level `freqs` and `nominal`; migration LeanResults1764900000000 removed those).
+ */
 export function toStoredResult(result: RunResult): Record<string, unknown> {
-  const nominal: Record<string, number[]> = {};
-  for (const s of result.envelopes.series) nominal[s.metric.replace(/_db$/, "")] = s.nominal.slice();
-  return { ...(jsonSafe(result) as Record<string, unknown>), freqs: result.envelopes.freqs.slice(), nominal };
+  return jsonSafe(result) as Record<string, unknown>;
 }
 
 /** Typed arrays → arrays, non-finite numbers → null, recursively. */

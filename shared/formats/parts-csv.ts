@@ -30,6 +30,7 @@
  * byte-order mark; blank lines and lines starting with `#` are skipped; spaces around unquoted cells
  * are ignored (quoted cells are kept as written). Ports are not part of it.
  */
+import { readTolerance as readToleranceText } from "../tolerance";
 import type { ESeriesName, Part, PartKind } from "../engine/netlist";
 import { formatSi, parseSi } from "../units";
 import { FormatError, fileError } from "./format-error";
@@ -48,8 +49,6 @@ export const PARTS_CSV_COLUMNS = [
 export type PartsCsvColumn = (typeof PARTS_CSV_COLUMNS)[number];
 
 const REQUIRED: readonly PartsCsvColumn[] = ["ref", "kind", "node1", "node2", "value"];
-const LETTER_RELATIVE: Record<string, number> = { F: 0.01, G: 0.02, J: 0.05, K: 0.1, M: 0.2 };
-const LETTER_SMALL: Record<string, number> = { B: 0.1, C: 0.25, D: 0.5 }; // pF (capacitors) or % (resistors)
 const SERIES: readonly ESeriesName[] = ["E3", "E6", "E12", "E24", "E48", "E96", "E192"];
 const PLAIN_NUMBER = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
 
@@ -208,41 +207,15 @@ function readTolerance(part: Part, cells: Map<PartsCsvColumn, string>, line: num
   const abs = cells.get("tolerance_abs") ?? "";
   if (abs !== "") part.toleranceAbs = siCell(abs, line, "tolerance_abs", "nonNegative");
   if (raw === "") return;
-  const letter = raw.toUpperCase();
-  if (letter in LETTER_RELATIVE) {
-    part.tolerance = LETTER_RELATIVE[letter];
-    return;
+  // The one tolerance reader (shared/tolerance.ts), as in the parts table, the grade form and the command line.
+  const r = readToleranceText(raw, part.kind, part.value);
+  if (!r.ok) throw fileError(r.error, line, "tolerance");
+  if (r.value.toleranceAbs !== undefined) {
+    if (abs !== "") throw fileError(`"${raw}" is an absolute tolerance and tolerance_abs is also given`, line, "tolerance");
+    part.toleranceAbs = r.value.toleranceAbs;
   }
-  if (letter in LETTER_SMALL) {
-    const n = LETTER_SMALL[letter];
-    if (part.kind === "L") {
-      throw fileError(`letter code ${letter} is ambiguous on an inductor; write the tolerance as a percentage or use tolerance_abs`, line, "tolerance");
-    }
-    if (part.kind === "R") {
-      part.tolerance = n / 100;
-      return;
-    }
-    if (abs !== "") throw fileError(`letter code ${letter} is an absolute tolerance and tolerance_abs is also given`, line, "tolerance");
-    part.toleranceAbs = Number(`${n}e-12`);
-    if (part.value > 10e-12) {
-      warnings.push(`line ${line}: tolerance: letter code ${letter} read as ±${n} pF (IEC 60062); on a ${formatSi(part.value, "F")} capacitor it may have meant ±${n} %`);
-    }
-    return;
-  }
-  if (letter === "Z") throw fileError("letter code Z (+80/−20 %) is asymmetric and not supported", line, "tolerance");
-  const m = /^(?:±|\+\/-|\+-)?\s*([^%]*?)\s*(%?)$/.exec(raw);
-  const numText = m === null ? raw : m[1];
-  const t = PLAIN_NUMBER.test(numText) ? Number(numText) : NaN;
-  if (!Number.isFinite(t)) throw fileError(`not a tolerance ("${raw}"; write 2%, 0.02 or a letter code F G J K M, B C D)`, line, "tolerance");
-  const percent = m !== null && m[2] === "%";
-  // "2.2e-2" is the double nearest 0.022, where 2.2 / 100 is not
-  const fraction = !percent ? t : /[eE]/.test(numText) ? t / 100 : Number(`${numText}e-2`);
-  if (fraction < 0) throw fileError(`must be ≥ 0 (got "${raw}")`, line, "tolerance");
-  if (fraction > PARTS_CSV_LIMITS.maxTolerance) {
-    const hint = m !== null && m[2] === "" && t >= 1 ? `; for ${t} % write "${t}%"` : "";
-    throw fileError(`±${fraction * 100} % is above the ±${PARTS_CSV_LIMITS.maxTolerance * 100} % limit ("${raw}"${hint})`, line, "tolerance");
-  }
-  part.tolerance = fraction;
+  if (r.value.tolerance !== undefined) part.tolerance = r.value.tolerance;
+  if (r.warning) warnings.push(`line ${line}: tolerance: ${r.warning}`);
 }
 
 function readParasitics(part: Part, cells: Map<PartsCsvColumn, string>, line: number): void {

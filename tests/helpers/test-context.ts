@@ -60,7 +60,7 @@ export async function createTestContext(
   await openAndMigrate(dataSource);
   const sink = await startMailSink(dataSource, { port: 0 });
   config.smtp.sinkPort = sink.port;
-  const sessions = createSessionService(config.db, { secure: false });
+  const sessions = createSessionService(dataSource, { secure: false });
   const mailer = createMailer(config);
   const log = createLogger("silent");
   // A small pool (one thread unless asked; started on the first run) or the given dispatcher, and a queue that starts at once, so a POSTed run completes.

@@ -8,7 +8,7 @@ import { validateLimits } from "../../shared/engine/limits";
 import { compileNetlist, createSweepEvaluator, nominalValues } from "../../shared/engine/solver";
 import { parseTouchstone } from "../../shared/formats/touchstone";
 import { createTestContext, ORIGIN, type TestContext } from "../helpers/test-context";
-import { LOWPASS, LOWPASS_LIMITS, LOWPASS_SWEEP, makeRunFixture, type RunFixture } from "./access-samples/runs";
+import { insertRun, LOWPASS, LOWPASS_LIMITS, LOWPASS_SWEEP, makeRunFixture, type RunFixture } from "./access-samples/runs";
 
 // Runs through the API on a real MariaDB: launch → queue → stored result equal to the engine's own run of
 // the same inputs; replay, CSV and Touchstone exports recomputed from the seed; 400s with field paths.
@@ -62,16 +62,37 @@ describe("a run launched through the API", () => {
     expect(detail.run).toMatchObject({ passed: engine.passed, yield: engine.yield, wilson95: engine.wilson95 });
   });
 
-  it("stores the grid and nominal |S| dB per pair", async () => {
+  it("stores the grid and nominal |S| dB per pair once, in the envelopes", async () => {
     const compiled = compileNetlist(LOWPASS);
     const grid = buildFrequencyGrid(LOWPASS_SWEEP, validateLimits(LOWPASS_LIMITS, 2));
     const buf = createSweepEvaluator(compiled, grid.freqs).evaluate(nominalValues(compiled), 25);
-    expect(detail.result.freqs).toEqual(Array.from(grid.freqs));
-    expect(Object.keys(detail.result.nominal).sort()).toEqual(["s11", "s12", "s21", "s22"]);
+    expect(detail.result.freqs).toBeUndefined(); // no second copy of the grid
+    expect(detail.result.nominal).toBeUndefined();
+    expect(detail.result.envelopes.freqs).toEqual(Array.from(grid.freqs));
+    const series = Object.fromEntries(detail.result.envelopes.series.map((s: { metric: string; nominal: number[] }) => [s.metric, s.nominal]));
+    expect(Object.keys(series).sort()).toEqual(["s11_db", "s12_db", "s21_db", "s22_db"]);
     // [C] |S21| dB from the solver's complex S at each grid point
     const s21 = Array.from(grid.freqs, (_, k) => 10 * Math.log10(buf.s[(k * 4 + 2) * 2] ** 2 + buf.s[(k * 4 + 2) * 2 + 1] ** 2));
-    expect(detail.result.nominal.s21).toHaveLength(grid.freqs.length);
-    detail.result.nominal.s21.forEach((v: number, k: number) => expect(v).toBeCloseTo(s21[k], 9));
+    expect(series.s21_db).toHaveLength(grid.freqs.length);
+    series.s21_db.forEach((v: number, k: number) => expect(v).toBeCloseTo(s21[k], 9));
+  });
+
+  it("the lean-results migration removes the top-level copies from a row stored the old way and keeps the rest", async () => {
+    const { RunResultRow } = await import("../../server/entities");
+    const { migrations } = await import("../../server/migrations");
+    const repo = t.ctx.dataSource.getRepository(RunResultRow);
+    const lean = (await repo.findOneByOrFail({ runId })).result;
+    const other = await insertRun(t, user, "done", TRIALS);
+    const old = { ...lean, freqs: lean.envelopes && (lean.envelopes as { freqs: number[] }).freqs, nominal: { s21: [1, 2, 3] } };
+    await repo.save(repo.create({ runId: other.id, result: old }));
+    const runner = t.ctx.dataSource.createQueryRunner();
+    try {
+      await new (migrations.find((m) => m.name === "LeanResults1764900000000")!)().up(runner);
+    } finally {
+      await runner.release();
+    }
+    expect((await repo.findOneByOrFail({ runId: other.id })).result).toEqual(lean);
+    expect((await repo.findOneByOrFail({ runId })).result).toEqual(lean); // a lean row is left as it is
   });
 
   it("reports lot economics and mails the launcher", async () => {
