@@ -1,7 +1,10 @@
 import type { NextFunction, Request, Response } from "express";
 import { EngineError } from "../../shared/engine/errors";
 import { AppError, ERROR_CODES } from "../errors";
+import { isDatabaseDown } from "../db/errors";
 import type { Logger } from "../logger";
+
+export { isDatabaseDown };
 
 interface HttpError {
   type?: string;
@@ -71,26 +74,8 @@ function isDecompressionError(error: unknown): boolean {
   return e?.status === 400 && e.type === undefined && typeof e.errno === "number" && typeof e.code === "string" && /^(Z_|ERR_BROTLI|ERR__ERROR_)/.test(e.code);
 }
 
-const DOWN_CODES = new Set([
-  "ECONNREFUSED", "PROTOCOL_CONNECTION_LOST", "ETIMEDOUT", "ECONNRESET", "ER_CON_COUNT_ERROR", "EPIPE", "ENOTFOUND", "EHOSTUNREACH",
-  "ER_SERVER_SHUTDOWN", "PROTOCOL_SEQUENCE_TIMEOUT", "POOL_CLOSED",
-]);
-
 function isLockConflict(error: unknown): boolean {
   const e = error as HttpError & { driverError?: HttpError } | null | undefined;
   const code = e?.code ?? e?.driverError?.code;
   return code === "ER_LOCK_DEADLOCK" || code === "ER_LOCK_WAIT_TIMEOUT";
-}
-
-/**
- * True when an error says the database cannot be reached (refused or lost connection, server shutting down), as
- * mysql2 reports it directly or wrapped by TypeORM (`driverError`). Such errors answer 503 DATABASE_UNAVAILABLE with
- * Retry-After, and the run queue retries its writes on them.
- */
-export function isDatabaseDown(error: unknown): boolean {
-  const e = error as HttpError & { driverError?: HttpError; cause?: HttpError; message?: string } | null | undefined;
-  const code = e?.code ?? e?.driverError?.code ?? e?.cause?.code;
-  if (typeof code === "string" && DOWN_CODES.has(code)) return true;
-  // mysql2 on a connection a fatal error has already closed (no code of its own)
-  return typeof e?.message === "string" && /connection is in closed state|Connection lost: The server closed the connection/i.test(e.message);
 }

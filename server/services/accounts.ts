@@ -68,6 +68,11 @@ export async function findOpenInvitation(manager: EntityManager, token: string):
   return invitation;
 }
 
+/** The account with this e-mail address (active or not), or null: sign-in checks its password and state. */
+export function findAccountByEmail(ctx: AppContext, email: string): Promise<User | null> {
+  return ctx.dataSource.getRepository(User).findOneBy({ email });
+}
+
 /** Creates the account for an invitation and marks it used, in one transaction (a token works once). */
 export async function acceptInvitation(ctx: AppContext, token: string, name: string, password: string): Promise<User> {
   const passwordHash = await hashPassword(password);

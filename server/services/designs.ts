@@ -9,6 +9,7 @@ import type { AuthUser } from "../auth/sessions";
 import type { AppContext } from "../context";
 import { Design, DesignRevision, LimitSet, MeasuredResponse, Run } from "../entities";
 import type { SweepSetting } from "../entities/design-revision.entity";
+import { DEFAULT_STRESS_CLASS } from "../../shared/contracts/vocabulary";
 import type { StressClass } from "../entities/design.entity";
 import { AppError, notFound } from "../errors";
 import {
@@ -115,7 +116,7 @@ export async function createDesign(ctx: AppContext, user: AuthUser, input: Creat
   const designId = randomUUID();
   const revisionId = randomUUID();
   await ctx.dataSource.transaction(async (m) => {
-    await m.getRepository(Design).insert({ id: designId, name: input.name, description: input.description ?? "", stress: (input.stress ?? "small-signal") as StressClass, ownerId: user.id, archivedAt: null });
+    await m.getRepository(Design).insert({ id: designId, name: input.name, description: input.description ?? "", stress: (input.stress ?? DEFAULT_STRESS_CLASS) as StressClass, ownerId: user.id, archivedAt: null });
     await m.getRepository(DesignRevision).insert({ id: revisionId, designId, number: 1, netlist, sweep, note: "", parentId: null, reviewState: "draft", locked: false, createdById: user.id });
   });
   return { design: await findDesign(ctx, designId), revision: await findRevision(ctx, revisionId) };
@@ -215,6 +216,19 @@ export async function replaceRevision(ctx: AppContext, id: string, input: Omit<R
     await m.getRepository(Design).update({ id: revision.designId }, { updatedAt: new Date() });
   });
   return findRevision(ctx, id);
+}
+
+/** Stores a measured response of a design (already parsed from its Touchstone upload). */
+export async function addMeasured(ctx: AppContext, m: Omit<MeasuredResponse, "id" | "createdAt" | "design" | "uploadedBy">): Promise<MeasuredResponse> {
+  const measured = ctx.dataSource.getRepository(MeasuredResponse).create({ id: randomUUID(), ...m });
+  await ctx.dataSource.getRepository(MeasuredResponse).insert(measured);
+  return measured;
+}
+
+/** Removes a measured response. @throws AppError 404 */
+export async function deleteMeasured(ctx: AppContext, id: string): Promise<void> {
+  const result = await ctx.dataSource.getRepository(MeasuredResponse).delete({ id });
+  if (result.affected !== 1) throw notFound("That measured response");
 }
 
 /** A measured response (404 when missing). */

@@ -1,5 +1,5 @@
 /**
- * The run queue: executes stored `queued` runs through the run dispatcher (the server's trial pool, or chunk
+ * The run queue: schedules and executes stored `queued` runs through the run dispatcher (the server's trial pool, or chunk
  * jobs for worker processes in distributed mode: server/engine/dispatcher.ts).
  *
  * - At most `maxRunning` runs execute at once, and at most one per person: the next run is the oldest queued run
@@ -14,6 +14,8 @@
  *   `running` (a cancel that won the race keeps its `cancelled`).
  * - Cancel: the run's AbortController aborts its chunks on the pool.
  * - When a run ends done or failed, its launcher gets a mail (failures to send are logged only).
+ * - The writes that end a run (result, failure, cancel, re-queue; retried while the database is down) and the mail
+ *   live in run-outcomes.ts; the stored JSON's shape in stored-result.ts; this file schedules and executes.
  * - Faults: a chunk whose worker thread exits or throws a plain Error fails its run with code
  *   WORKER_FAILED and the worker's message (the pool replaces the thread; later runs are unaffected).
  *   While the database is unreachable, the end of a run (result, failure or cancel) is kept in memory
@@ -27,14 +29,14 @@ import type { DataSource } from "typeorm";
 import type { ServerConfig } from "../config/env";
 import { ServerStopping, type DispatchStatus, type RunDispatcher } from "../engine/dispatcher";
 import { WorkerFailure } from "../engine/trial-pool";
-import { Design, DesignRevision, Run, RunResultRow, User } from "../entities";
+import { Run } from "../entities";
 import type { RunState } from "../entities/run.entity";
 import type { Logger } from "../logger";
 import type { Mailer } from "../mail/mailer";
-import { isDatabaseDown } from "../middlewares/error-handler";
 import { EngineError } from "../../shared/engine/errors";
 import type { RunResult } from "../../shared/engine/result";
 import type { RunOptions } from "../../shared/engine/run-options";
+import { createRunOutcomes } from "./run-outcomes";
 
 /** What listeners of one run hear. */
 export type RunEvent =
@@ -88,27 +90,7 @@ interface Active {
   launcherId: string;
 }
 
-/**
- * The stored JSON of a finished run: the engine result made JSON-safe. The frequency grid and the nominal curves are
- * in it once, as `envelopes.freqs` and each `envelopes.series[].nominal` (rows stored before 2026-12 also repeated them
- * as top-level `freqs` and `nominal`; migration LeanResults1764900000000 removed those).
- */
-export function toStoredResult(result: RunResult): Record<string, unknown> {
-  return jsonSafe(result) as Record<string, unknown>;
-}
-
-/** Typed arrays → arrays, non-finite numbers → null, recursively. */
-export function jsonSafe(value: unknown): unknown {
-  if (typeof value === "number") return Number.isFinite(value) ? value : null;
-  if (ArrayBuffer.isView(value)) return Array.from(value as unknown as ArrayLike<number>, (x) => (Number.isFinite(x) ? x : null));
-  if (Array.isArray(value)) return value.map(jsonSafe);
-  if (value !== null && typeof value === "object") {
-    const out: Record<string, unknown> = {};
-    for (const [k, v] of Object.entries(value)) if (v !== undefined) out[k] = jsonSafe(v);
-    return out;
-  }
-  return value;
-}
+export { jsonSafe, toStoredResult } from "./stored-result";
 
 export function createRunQueue(deps: RunQueueDeps): RunQueue {
   const { dataSource, log } = deps;
@@ -129,6 +111,8 @@ export function createRunQueue(deps: RunQueueDeps): RunQueue {
   let pumpRetryMs = firstRetryMs;
   let pumpRetry: NodeJS.Timeout | null = null;
   const sleepers = new Set<() => void>();
+  const outcomes = createRunOutcomes({ ...deps, firstRetryMs, isClosed: () => closed, sleep: (ms) => sleep(ms) });
+  const { persist, saveResult, requeueInterrupted, notifyLauncher: mailLauncher } = outcomes;
   const sleep = (ms: number) =>
     new Promise<void>((resolve) => {
       const wake = () => {
@@ -139,28 +123,6 @@ export function createRunQueue(deps: RunQueueDeps): RunQueue {
       const timer = setTimeout(wake, ms);
       sleepers.add(wake);
     });
-
-  /**
-   * Runs a write of a run's outcome; while the database is down it is retried with backoff (until the queue is
-   * closed: the run then stays `running` and the next start re-queues it). Returns undefined when it gave up.
-   */
-  async function persist<T>(runId: string, what: string, write: () => Promise<T>): Promise<T | undefined> {
-    let delay = firstRetryMs;
-    for (let attempt = 1; ; attempt++) {
-      try {
-        return await write();
-      } catch (err) {
-        const down = isDatabaseDown(err);
-        if (!down || closed) {
-          log.error("run_write_failed", { runId, what, attempt, databaseDown: down, message: (err as Error).message });
-          return undefined;
-        }
-        if (attempt === 1) log.warn("run_write_waiting_for_database", { runId, what, message: (err as Error).message });
-        await sleep(delay);
-        delay = Math.min(delay * 2, 5000);
-      }
-    }
-  }
 
   const emit = (runId: string, event: RunEvent) => {
     for (const l of listeners.get(runId) ?? []) {
@@ -306,57 +268,6 @@ export function createRunQueue(deps: RunQueueDeps): RunQueue {
       else final = "cancelled"; // a cancel won the race
     }
     emit(run.id, { type: "end", state: final });
-  }
-
-  /**
-   * Puts `running` runs (one, or all that a stopped or killed server left) back to `queued`, counting the interruption
-   * so the run shows that it was interrupted and resumed; it runs again from its seed to the same result.
-   */
-  async function requeueInterrupted(runId?: string): Promise<void> {
-    const q = runs().createQueryBuilder().update(Run)
-      .set({ state: "queued", startedAt: null, trialsDone: 0, interruptions: () => "interruptions + 1", lastInterruptedAt: new Date() })
-      .where("state = :s", { s: "running" });
-    if (runId) q.andWhere("id = :id", { id: runId });
-    const res = await q.execute();
-    if (res.affected) log.warn("runs_interrupted_requeued", { runs: res.affected, ...(runId ? { runId } : {}) });
-  }
-
-  /** Run row and run_result in one transaction; false when the run is no longer `running`. */
-  async function saveResult(run: Run, result: RunResult): Promise<boolean> {
-    return dataSource.transaction(async (m) => {
-      const res = await m.getRepository(Run).update(
-        { id: run.id, state: "running" },
-        {
-          state: "done", trialsDone: result.trials, passed: result.passed, yieldFraction: result.yield,
-          wilsonLow: result.wilson95[0], wilsonHigh: result.wilson95[1], finishedAt: new Date(), errorCode: null, errorMessage: null,
-        },
-      );
-      if (res.affected !== 1) return false;
-      await m.getRepository(RunResultRow).delete({ runId: run.id });
-      await m.getRepository(RunResultRow).save(m.getRepository(RunResultRow).create({ runId: run.id, result: toStoredResult(result) }));
-      return true;
-    });
-  }
-
-  async function mailLauncher(run: Run, outcome: "done" | "failed", result?: RunResult, reason?: string): Promise<void> {
-    try {
-      const [user, design, revision] = await Promise.all([
-        dataSource.getRepository(User).findOneBy({ id: run.launchedById }),
-        dataSource.getRepository(Design).findOneBy({ id: run.designId }),
-        dataSource.getRepository(DesignRevision).findOneBy({ id: run.revisionId }),
-      ]);
-      if (!user) return;
-      const what = `${design?.name ?? "design"} r${revision?.number ?? "?"}${run.label ? ` (${run.label})` : ""}`;
-      const link = `${deps.config.publicOrigin}/runs/${run.id}`;
-      const subject = outcome === "done" ? `Run finished: ${what} — yield ${(100 * result!.yield).toFixed(1)} %` : `Run failed: ${what}`;
-      const body = outcome === "done"
-        ? `Your run of ${what} finished: ${result!.passed} of ${result!.trials} trials passed, yield ${(100 * result!.yield).toFixed(1)} % ` +
-          `(95 % interval ${(100 * result!.wilson95[0]).toFixed(1)} – ${(100 * result!.wilson95[1]).toFixed(1)} %).`
-        : `Your run of ${what} failed: ${reason}`;
-      await deps.mailer.send({ to: user.email, subject, text: `${body}\n\nOpen it: ${link}\n\n— Lotwise\nLotwise estimates; it does not certify.` });
-    } catch (err) {
-      log.error("mail_failed", { kind: `run_${outcome}`, runId: run.id, message: (err as Error).message });
-    }
   }
 
   return {

@@ -155,6 +155,11 @@ export async function findRun(ctx: AppContext, id: string): Promise<Run & { desi
   return run;
 }
 
+/** The few columns a progress stream needs (not the run's JSON inputs), or null. */
+export function runProgressRow(ctx: AppContext, id: string): Promise<Pick<Run, "id" | "state" | "trialsDone" | "trialsTotal"> | null> {
+  return ctx.dataSource.getRepository(Run).findOne({ where: { id }, select: { id: true, state: true, trialsDone: true, trialsTotal: true } });
+}
+
 /** GET /api/runs/:id body. */
 export async function runDetail(ctx: AppContext, id: string) {
   const run = await findRun(ctx, id);
