@@ -31,7 +31,9 @@ import {
   BATCH_QUEUE, CHUNK_ATTEMPTS, CHUNK_QUEUE, CHUNK_QUEUE_PREFIX, chunkJobId, redactUrl, redisConnection, unpackChunkResult,
   type ChunkJobData, type ChunkJobResult,
 } from "./chunk-jobs";
+import { createBatchRemover } from "./batch-removal";
 import type { DispatchStatus, RunDispatcher } from "./dispatcher";
+import { isRedisTrouble, within } from "./redis-bounds";
 import { ServerStopping, WorkerFailure } from "./trial-pool";
 
 export interface DistributedDispatcherOptions {
@@ -53,6 +55,8 @@ export interface DistributedDispatcher extends RunDispatcher {
 }
 
 const KEEP_FINISHED = { age: 24 * 3600 };
+export { isRedisTrouble };
+
 /** Events kept in the chunk queue's stream (BullMQ's default of 10,000 would hold gigabytes of chunk results). */
 export const EVENTS_KEPT = 100;
 
@@ -296,32 +300,8 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
     }
   }
 
-  const removals = new Set<Promise<void>>();
-  function cleanUp(parentId: string, ids: string[]): void {
-    const p = removeBatch(parentId, ids, 0).finally(() => removals.delete(p));
-    removals.add(p);
-  }
-
-  /**
-   * Removes a batch from Redis once nothing of it is running: its chunks, then the parent. A chunk still running
-   * (after a cancel or a failure) cannot be removed yet, nor anything while Redis is away, so what is left is tried
-   * again up to 10 times, 2 s apart doubling to 1 min (about 6 min in all). Chunks still left then are dropped by
-   * BullMQ a day after they finished, parents by the hourly sweep.
-   */
-  async function removeBatch(parentId: string, ids: string[], attempt: number): Promise<void> {
-    const left: string[] = [];
-    const never = new AbortController().signal;
-    try {
-      for (const id of ids) {
-        const ok = await within(chunks.getJob(id).then((j) => j?.remove()), passTimeoutMs, never).then(() => true, () => false);
-        if (!ok) left.push(id);
-      }
-      await within(batches.getJob(parentId).then((p) => p?.remove()), passTimeoutMs, never);
-    } catch {
-      left.push("");
-    }
-    if (left.length > 0 && attempt < 10 && !closed) setTimeout(() => void removeBatch(parentId, left.filter(Boolean), attempt + 1), Math.min(2000 * 2 ** attempt, 60_000)).unref();
-  }
+  const remover = createBatchRemover({ chunks, batches, passTimeoutMs, isClosed: () => closed });
+  const cleanUp = (parentId: string, ids: string[]) => remover.remove(parentId, ids);
 
   let cachedStatus: { at: number; value: Promise<DispatchStatus> } | null = null;
   async function readStatus(): Promise<DispatchStatus> {
@@ -369,46 +349,11 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
       for (const w of [...wakers]) w();
       const bounded = (p: Promise<unknown>, ms: number) => Promise.race([p, new Promise((r) => setTimeout(r, ms).unref())]);
       // Let the removal of finished batches end, then close; both bounded, as Redis may be away.
-      await bounded(Promise.allSettled([...removals]), 3000);
+      await bounded(Promise.allSettled(remover.pending()), 3000);
       // A connection that never reached Redis can keep close() (QueueEvents) waiting: bounded, then dropped.
       const conns = [events, flows, batches, chunks].filter((c) => c !== null);
       await bounded(Promise.allSettled(conns.map((c) => c.close())), 5000);
       await bounded(Promise.allSettled(conns.map((c) => c.disconnect())), 1000);
     },
   };
-}
-
-/**
- * Resolves or rejects as `p` does, but rejects with a RedisTimeout after `ms` and with CANCELLED when `signal`
- * aborts, so a look at a Redis that never answers (never connected, a half-open link) cannot hold a run forever.
- */
-function within<T>(p: Promise<T>, ms: number, signal: AbortSignal): Promise<T> {
-  return new Promise<T>((resolve, reject) => {
-    const settle = (fn: () => void) => {
-      clearTimeout(timer);
-      signal.removeEventListener("abort", onAbort);
-      fn();
-    };
-    const timer = setTimeout(() => settle(() => reject(new RedisTimeout(`no answer from Redis within ${ms} ms`))), ms);
-    timer.unref();
-    const onAbort = () => settle(() => reject(new EngineError("CANCELLED", "run cancelled")));
-    signal.addEventListener("abort", onAbort, { once: true });
-    p.then((v) => settle(() => resolve(v)), (e: unknown) => settle(() => reject(e)));
-  });
-}
-
-class RedisTimeout extends Error {
-  constructor(message: string) {
-    super(message);
-    this.name = "RedisTimeout";
-  }
-}
-
-/** Errors that mean Redis is away or not ready yet (waited out up to `outageMs`), as opposed to a fault of ours. */
-export function isRedisTrouble(err: unknown): boolean {
-  if (err instanceof RedisTimeout) return true;
-  const e = err as { name?: string; code?: string; message?: string } | null;
-  if (e?.name === "MaxRetriesPerRequestError") return true;
-  if (e?.code && /^(ECONNREFUSED|ECONNRESET|ETIMEDOUT|EPIPE|EHOSTUNREACH|ENETUNREACH|ENOTFOUND|EAI_AGAIN)$/.test(e.code)) return true;
-  return /Connection is closed|Stream isn't writeable|Command timed out|ECONNREFUSED|ECONNRESET|ETIMEDOUT|^LOADING|^BUSY|^TRYAGAIN|^MASTERDOWN|^READONLY|locked/i.test(String(e?.message ?? ""));
 }
