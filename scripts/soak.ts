@@ -529,7 +529,7 @@ Lotwise fairness (2 trial threads, 1 export thread, up to 4 runs at once, one pe
 if (import.meta.url === `file://${process.argv[1]}`) {
   const main = process.argv.includes("--serve") ? serve() : soak();
   main.catch((err: Error) => {
-    console.error(`soak: ${err.message}`);
+    console.error(`soak: ${err.message}${(err as { cause?: Error }).cause ? ` (${String((err as { cause?: Error }).cause?.message ?? (err as { cause?: unknown }).cause)})` : ""}\n${err.stack ?? ""}`);
     process.exit(1);
   });
 }

@@ -25,7 +25,7 @@ import { FlowProducer, Queue, QueueEvents } from "bullmq";
 import type { TrialAggregate } from "../../shared/engine/aggregate";
 import { EngineError } from "../../shared/engine/errors";
 import { costBoundedChunkSize, driveRun, validateChunkSize, type ChunkTask } from "../../shared/engine/monte-carlo";
-import { planRun } from "../../shared/engine/run-plan";
+import { shapeRun } from "../../shared/engine/run-plan";
 import { createLogger, type Logger } from "../logger";
 import {
   BATCH_QUEUE, CHUNK_ATTEMPTS, CHUNK_QUEUE, CHUNK_QUEUE_PREFIX, chunkJobId, redactUrl, redisConnection, unpackChunkResult,
@@ -317,7 +317,7 @@ export function createDistributedDispatcher(options: DistributedDispatcherOption
     mode: "distributed",
     chunks,
     async runMonteCarlo(netlist, limits, runOptions, controls = {}) {
-      const plan = planRun(netlist, limits, runOptions); // bad input fails here with its coded error, before Redis
+      const plan = shapeRun(netlist, limits, runOptions); // bad input fails here with its coded error, before Redis (no solve: the workers plan)
       const runId = controls.runId ?? randomUUID();
       const base = { netlist, limits, options: runOptions };
       const local = new AbortController();

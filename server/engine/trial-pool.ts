@@ -18,7 +18,7 @@ import { costBoundedChunkSize, driveRun, validateChunkSize, type ChunkTask } fro
 import type { Netlist } from "../../shared/engine/netlist";
 import type { RunResult } from "../../shared/engine/result";
 import type { RunOptions } from "../../shared/engine/run-options";
-import { planRun } from "../../shared/engine/run-plan";
+import { shapeRun } from "../../shared/engine/run-plan";
 import { createLogger, type Logger } from "../logger";
 import { createFairGate } from "./fair-gate";
 import { deserializeEngineError } from "../../shared/engine/task-errors";
@@ -143,9 +143,11 @@ export function createTrialPool(options: TrialPoolOptions = {}): TrialPool {
     size,
     async runMonteCarlo(netlist, limits, runOptions, controls = {}) {
       // Validate and plan here too: bad input fails fast with its coded error, and finalizing needs the plan.
-      const plan = planRun(netlist, limits, runOptions);
+      // Validate here too, short of solving: bad input fails fast with its coded error. The plan itself (seconds for
+      // the largest runs) is built by the workers, never on this thread, which answers requests.
+      const plan = shapeRun(netlist, limits, runOptions);
       const base = { netlist, limits, options: runOptions };
-      const share = { key: randomUUID(), perTrialCost: plan.options.corners.length * plan.grid.freqs.length * plan.sampling.partCount };
+      const share = { key: randomUUID(), perTrialCost: plan.options.corners.length * plan.points * plan.parts };
       const local = new AbortController();
       setMaxListeners(0, local.signal); // one listener per queued chunk task
       const abort = () => local.abort();

@@ -8,12 +8,9 @@ import { Design, DesignRevision, Grade, LimitSet, Run, RunResultRow, User } from
 import { AppError, notFound } from "../errors";
 import { presentRunDetail, runEconomics } from "../presenters/run.presenter";
 import { EngineError } from "../../shared/engine/errors";
-import { buildFrequencyGrid } from "../../shared/engine/frequency-grid";
-import { validateLimits } from "../../shared/engine/limits";
 import type { Netlist, Part } from "../../shared/engine/netlist";
-import { resolveRunOptions, type RunOptions } from "../../shared/engine/run-options";
-import { compileSampling } from "../../shared/engine/sampling";
-import { compileNetlist } from "../../shared/engine/solver";
+import type { RunOptions } from "../../shared/engine/run-options";
+import { shapeRun } from "../../shared/engine/run-plan";
 import { checkRunCost, runLimits, type CostShape } from "./run-limits";
 import { MAX_API_SEED, type CreateRunInput } from "../../shared/schemas/run-request";
 
@@ -76,12 +73,8 @@ export function bomCostOf(netlist: Netlist, grades: Grade[]): number {
  */
 function checkRunInputs(netlist: Netlist, limits: unknown, options: RunOptions): CostShape {
   try {
-    const compiled = compileNetlist(netlist);
-    const rules = validateLimits(limits, compiled.portCount);
-    const resolved = resolveRunOptions(options, rules);
-    const grid = buildFrequencyGrid(resolved.sweep, rules);
-    const sampling = compileSampling(netlist, resolved);
-    return { trials: resolved.trials, corners: resolved.corners.length, points: grid.freqs.length, parts: sampling.partCount };
+    const shape = shapeRun(netlist, limits, options);
+    return { trials: shape.options.trials, corners: shape.options.corners.length, points: shape.points, parts: shape.parts };
   } catch (err) {
     if (!(err instanceof EngineError)) throw err;
     const where = err.code === "INVALID_NETLIST" ? "netlist" : err.code === "INVALID_LIMITS" ? "limits" : "";

@@ -84,6 +84,26 @@ export function createAggregate(plan: RunPlan): TrialAggregate {
   };
 }
 
+/** An empty aggregate of the same run as `agg` (same meta and sizes): what a driver starts from when it has no plan. */
+export function emptyAggregateLike(agg: TrialAggregate): TrialAggregate {
+  const R = agg.ruleFailures.length;
+  return {
+    meta: agg.meta,
+    trials: 0,
+    passed: 0,
+    ranges: [],
+    ruleFailures: new Array(R).fill(0),
+    marginSum: Array.from({ length: R }, () => []),
+    marginSumSq: Array.from({ length: R }, () => []),
+    marginMin: new Array(R).fill(Infinity),
+    marginMax: new Array(R).fill(-Infinity),
+    marginCounts: new Float64Array(agg.marginCounts.length),
+    envelopeCounts: new Uint32Array(agg.envelopeCounts.length),
+    failing: [],
+    sample: [],
+  };
+}
+
 /**
  * Merges b into a copy of a (neither input is changed). Exact and order-independent.
  * @throws EngineError INVALID_INPUT when the aggregates belong to different runs or overlap

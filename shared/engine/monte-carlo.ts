@@ -13,13 +13,13 @@
  * ≤ the target or the trial cap `trials` is reached. The check only sees merged counts after whole
  * batches, so the stopping point depends on the seed alone, not on workers or chunking.
  */
-import { createAggregate, mergeInto, type SampleSegment, type TrialAggregate } from "./aggregate";
+import { createAggregate, emptyAggregateLike, mergeInto, type SampleSegment, type TrialAggregate } from "./aggregate";
 import { EngineError } from "./errors";
 import type { Netlist } from "./netlist";
 import { createTrialStream, type RunSeed } from "./random";
 import { finalizeRun, type RunResult } from "./result";
 import type { RunOptions } from "./run-options";
-import { planRun, type RunPlan } from "./run-plan";
+import { planRun, type RunPlan, type RunShape } from "./run-plan";
 import { evaluateMargins, evaluateMarginsDb, fillMagnitudeDb, magDb } from "./rules";
 import { sampleTrial } from "./sampling";
 import { sParamDeg } from "./solver";
@@ -199,21 +199,25 @@ export function planBatches(trials: number, targetHalfWidth: number | null, batc
  * @param runChunks executes the chunks of one batch, passing each aggregate to `accept`
  */
 export async function driveRun(
-  plan: RunPlan,
+  run: RunPlan | RunShape,
   runChunks: (chunks: { start: number; count: number }[], accept: (agg: TrialAggregate) => void) => Promise<void>,
   drive: DriveOptions = {},
 ): Promise<RunResult> {
-  const { trials, targetHalfWidth, batchSize } = plan.options;
+  const { trials, targetHalfWidth, batchSize } = run.options;
   const chunkSize = validateChunkSize(drive.chunkSize);
-  const total = createAggregate(plan);
+  // With a plan the total starts empty; with a shape only (a pool's driver, which leaves planning to the workers) it
+  // starts as an empty copy of the first chunk's aggregate: the same merges either way, hence the same result.
+  let total: TrialAggregate | null = "evaluator" in run ? createAggregate(run) : null;
   for (const batch of planBatches(trials, targetHalfWidth, batchSize, chunkSize)) {
-    if (drive.cancel?.aborted) throw new EngineError("CANCELLED", `run cancelled after ${total.trials} trials`);
+    if (drive.cancel?.aborted) throw new EngineError("CANCELLED", `run cancelled after ${total?.trials ?? 0} trials`);
     await runChunks(batch, (part) => {
+      total ??= emptyAggregateLike(part);
       mergeInto(total, part);
       drive.onProgress?.({ done: total.trials, total: trials });
     });
-    if (targetHalfWidth !== null && wilsonHalfWidth(total.passed, total.trials) <= targetHalfWidth) break;
+    if (targetHalfWidth !== null && total !== null && wilsonHalfWidth(total.passed, total.trials) <= targetHalfWidth) break;
   }
+  if (total === null) throw new EngineError("INVALID_INPUT", "a run needs at least one trial", { path: "trials" });
   return finalizeRun(total, { targetHalfWidth });
 }
 
@@ -241,9 +245,9 @@ export const DEFAULT_CHUNK_SIZE = 2500;
  */
 export const CHUNK_COST_BUDGET = 1e7;
 
-/** The chunk size for a plan: `chunkSize`, or fewer trials when a chunk would cost more than CHUNK_COST_BUDGET (at least 1). */
-export function costBoundedChunkSize(plan: RunPlan, chunkSize: number): number {
-  const perTrial = plan.options.corners.length * plan.grid.freqs.length * plan.sampling.partCount;
+/** The chunk size for a run: `chunkSize`, or fewer trials when a chunk would cost more than CHUNK_COST_BUDGET (at least 1). */
+export function costBoundedChunkSize(run: RunShape, chunkSize: number): number {
+  const perTrial = run.options.corners.length * run.points * run.parts;
   return Math.max(1, Math.min(chunkSize, Math.floor(CHUNK_COST_BUDGET / Math.max(1, perTrial))));
 }
 

@@ -95,6 +95,34 @@ export function planRun(netlist: Netlist, limits: unknown, options: unknown): Ru
   };
 }
 
+/** What a driver needs of a run without planning it (no solve): the resolved options and the sizes that set its cost. */
+export interface RunShape {
+  readonly options: ResolvedRunOptions;
+  /** grid points (the sweep plus the rules' band edges) */
+  readonly points: number;
+  readonly parts: number;
+}
+
+/**
+ * Validates the inputs as planRun does, short of solving the nominal circuit, and returns the run's shape: cheap
+ * enough for the thread that answers requests (a large run's plan takes seconds; the workers build it).
+ * @throws EngineError INVALID_NETLIST / INVALID_LIMITS / INVALID_INPUT
+ */
+export function shapeRun(netlist: Netlist, limits: unknown, options: unknown): RunShape {
+  if (typeof netlist !== "object" || netlist === null) throw new EngineError("INVALID_NETLIST", "netlist must be an object with `ports` and `parts`", { path: "netlist" });
+  const compiled = compileNetlist(netlist);
+  const compiledRules = validateLimits(limits, compiled.portCount);
+  const resolved = resolveRunOptions(options, compiledRules);
+  const grid = buildFrequencyGrid(resolved.sweep, compiledRules);
+  const sampling = compileSampling(netlist, resolved);
+  return { options: resolved, points: grid.freqs.length, parts: sampling.partCount };
+}
+
+/** The shape of a planned run. */
+export function shapeOf(plan: RunPlan): RunShape {
+  return { options: plan.options, points: plan.grid.freqs.length, parts: plan.sampling.partCount };
+}
+
 /** Margin histogram edges from the nominal margin m0 (see the module comment). */
 export function marginHistogramEdges(m0: number, bins: number): HistogramEdges {
   const a = Math.max(Math.abs(m0), 0.5);
