@@ -2,17 +2,13 @@ import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, Primary
 import type { Netlist } from "../../shared/engine/netlist";
 import { Design } from "./design.entity";
 import { User } from "./user.entity";
+import type { SweepSetting } from "../../shared/contracts/designs";
+import type { ReviewState } from "../../shared/contracts/vocabulary";
 
-export const REVIEW_STATES = ["draft", "in-review", "approved", "changes-requested"] as const;
-export type ReviewState = (typeof REVIEW_STATES)[number];
+export { REVIEW_STATES, type ReviewState } from "../../shared/contracts/vocabulary";
 
-/** Default sweep of a revision's nominal plot. */
-export interface SweepSetting {
-  from: number;
-  to: number;
-  points: number;
-  scale: "log" | "lin";
-}
+/** Default sweep of a revision's nominal plot (its shape is the API contract's). */
+export type { SweepSetting } from "../../shared/contracts/designs";
 
 /** One netlist of a design. Editable until a run references it (`locked`); after that only "new revision from this one". */
 @Entity({ name: "design_revision" })

@@ -1,9 +1,9 @@
 import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryColumn, UpdateDateColumn, type Relation } from "typeorm";
 import { User } from "./user.entity";
+import type { StressClass } from "../../shared/contracts/vocabulary";
 
 /** How the filter is used, for the safety cautions Lotwise shows beside it. */
-export const STRESS_CLASSES = ["small-signal", "mains", "high-power-rf"] as const;
-export type StressClass = (typeof STRESS_CLASSES)[number];
+export { STRESS_CLASSES, type StressClass } from "../../shared/contracts/vocabulary";
 
 /** A filter the team is developing; its netlists live in immutable-once-used revisions. */
 @Entity({ name: "design" })

@@ -1,4 +1,5 @@
 import { Column, CreateDateColumn, Entity, Index, PrimaryColumn } from "typeorm";
+import type { Distribution } from "../../shared/contracts/vocabulary";
 import type { PartKind } from "../../shared/engine/netlist";
 
 /** An entry of the team's grade catalogue: a purchasable tolerance grade of one part kind, and its cost each. */
@@ -24,7 +25,7 @@ export class Grade {
   toleranceAbs: number | null;
 
   @Column({ type: "varchar", length: 10, default: "normal" })
-  distribution: "normal" | "uniform";
+  distribution: Distribution;
 
   @Column({ name: "cost_each", type: "double" })
   costEach: number;

@@ -5,9 +5,9 @@ import { DesignRevision } from "./design-revision.entity";
 import { Design } from "./design.entity";
 import { GradeSweep } from "./grade-sweep.entity";
 import { User } from "./user.entity";
+import type { RunState } from "../../shared/contracts/vocabulary";
 
-export const RUN_STATES = ["queued", "running", "done", "failed", "cancelled"] as const;
-export type RunState = (typeof RUN_STATES)[number];
+export { RUN_STATES, type RunState } from "../../shared/contracts/vocabulary";
 
 /**
  * A Monte Carlo run: its inputs are copied in (netlist after grade overrides, limits, options with the seed), so a stored

@@ -1,23 +1,20 @@
 import type { Design, DesignRevision, Grade, LimitSet, MeasuredResponse, User } from "../entities";
+import type {
+  DesignView, Grade as GradeView, LimitSet as LimitSetView, LimitSetSummary, Measured, MeasuredSummary, PersonRef, Revision, RevisionSummary,
+} from "../../shared/contracts";
+
+// Every presenter answers a type of the API contract (shared/contracts), which the client reads.
 
 /** A person as shown beside a design or revision. */
-export const presentPerson = (u: Pick<User, "id" | "name"> | null | undefined, fallbackId: string) => ({ id: u?.id ?? fallbackId, name: u?.name ?? "" });
+export const presentPerson = (u: Pick<User, "id" | "name"> | null | undefined, fallbackId: string): PersonRef => ({ id: u?.id ?? fallbackId, name: u?.name ?? "" });
 
 /** Newest revision of a design, as the designs table shows it. */
-export interface LatestRevisionView {
-  id: string;
-  number: number;
-  reviewState: DesignRevision["reviewState"];
-}
+export type LatestRevisionView = NonNullable<DesignView["latestRevision"]>;
 
 /** Newest finished run of a design: yield and its Wilson 95 % interval. */
-export interface LatestYieldView {
-  runId: string;
-  yield: number;
-  wilson95: [number, number];
-}
+export type LatestYieldView = NonNullable<DesignView["latestYield"]>;
 
-export const presentDesign = (d: Design, extra: { owner?: User | null; latestRevision: LatestRevisionView | null; latestYield: LatestYieldView | null }) => ({
+export const presentDesign = (d: Design, extra: { owner?: User | null; latestRevision: LatestRevisionView | null; latestYield: LatestYieldView | null }): DesignView => ({
   id: d.id,
   name: d.name,
   description: d.description,
@@ -31,7 +28,7 @@ export const presentDesign = (d: Design, extra: { owner?: User | null; latestRev
 });
 
 /** A revision without its netlist, for the design page's revision list. */
-export const presentRevisionSummary = (r: DesignRevision) => ({
+export const presentRevisionSummary = (r: DesignRevision): RevisionSummary => ({
   id: r.id,
   number: r.number,
   note: r.note,
@@ -43,7 +40,7 @@ export const presentRevisionSummary = (r: DesignRevision) => ({
 });
 
 /** A whole revision, netlist and sweep included. */
-export const presentRevision = (r: DesignRevision) => ({
+export const presentRevision = (r: DesignRevision): Revision => ({
   id: r.id,
   designId: r.designId,
   number: r.number,
@@ -57,7 +54,7 @@ export const presentRevision = (r: DesignRevision) => ({
   createdBy: presentPerson(r.createdBy, r.createdById),
 });
 
-export const presentLimitSet = (l: LimitSet) => ({
+export const presentLimitSet = (l: LimitSet): LimitSetView => ({
   id: l.id,
   designId: l.designId,
   name: l.name,
@@ -66,7 +63,7 @@ export const presentLimitSet = (l: LimitSet) => ({
   updatedAt: l.updatedAt.toISOString(),
 });
 
-export const presentLimitSetSummary = (l: LimitSet) => ({
+export const presentLimitSetSummary = (l: LimitSet): LimitSetSummary => ({
   id: l.id,
   name: l.name,
   lotSize: l.lotSize,
@@ -74,7 +71,7 @@ export const presentLimitSetSummary = (l: LimitSet) => ({
   updatedAt: l.updatedAt.toISOString(),
 });
 
-export const presentGrade = (g: Grade) => ({
+export const presentGrade = (g: Grade): GradeView => ({
   id: g.id,
   kind: g.kind,
   code: g.code,
@@ -86,7 +83,7 @@ export const presentGrade = (g: Grade) => ({
 });
 
 /** A measured response without its data (the design page's list). */
-export const presentMeasuredSummary = (m: Pick<MeasuredResponse, "id" | "name" | "fileName" | "createdAt">, points: number) => ({
+export const presentMeasuredSummary = (m: Pick<MeasuredResponse, "id" | "name" | "fileName" | "createdAt">, points: number): MeasuredSummary => ({
   id: m.id,
   name: m.name,
   fileName: m.fileName,
@@ -98,14 +95,14 @@ export const presentMeasuredSummary = (m: Pick<MeasuredResponse, "id" | "name" |
  * A measured response with |S_ij| in dB per pair, 20·log10|S| (magnitudes below 1e-15 shown as −300 dB).
  * s12/s22 exist for two-port files only; a one-port file has s11 alone.
  */
-export const presentMeasured = (m: MeasuredResponse) => {
+export const presentMeasured = (m: MeasuredResponse): Measured => {
   const { freqs, ports, z0, s } = m.data;
   const pair = (i: number, j: number) =>
     freqs.map((_, f) => {
       const at = ((f * ports + i) * ports + j) * 2;
       return 20 * Math.log10(Math.max(Math.hypot(s[at], s[at + 1]), 1e-15));
     });
-  const sDb: Record<string, number[]> = { s11: pair(0, 0) };
+  const sDb: Measured["data"]["sDb"] = { s11: pair(0, 0) };
   if (ports >= 2) Object.assign(sDb, { s21: pair(1, 0), s12: pair(0, 1), s22: pair(1, 1) });
   return { id: m.id, designId: m.designId, name: m.name, fileName: m.fileName, createdAt: m.createdAt.toISOString(), data: { freqs, ports, z0, sDb } };
 };

@@ -1,4 +1,7 @@
 import type { Design, DesignRevision, Run, User } from "../entities";
+import type { RunDetail, RunEconomics, RunSummary } from "../../shared/contracts";
+
+export type { RunEconomics, RunSummary };
 
 /** What a run summary needs beyond the run row; taken from loaded relations when not given. */
 export interface RunSummaryExtras {
@@ -10,7 +13,7 @@ export interface RunSummaryExtras {
 type RunWithRelations = Run & { design?: Design; revision?: DesignRevision; launchedBy?: User };
 
 /** The run as every list, page and compare view shows it (RunSummary of the workflow contract). */
-export function presentRunSummary(run: RunWithRelations, extras: RunSummaryExtras = {}) {
+export function presentRunSummary(run: RunWithRelations, extras: RunSummaryExtras = {}): RunSummary {
   const launcher = extras.launchedBy ?? (run.launchedBy ? { id: run.launchedBy.id, name: run.launchedBy.name } : { id: run.launchedById, name: "" });
   return {
     id: run.id,
@@ -44,22 +47,6 @@ export function presentRunSummary(run: RunWithRelations, extras: RunSummaryExtra
   };
 }
 
-export type RunSummary = ReturnType<typeof presentRunSummary>;
-
-/** Lot economics of a finished run; null until the run has a yield. */
-export interface RunEconomics {
-  lotSize: number;
-  bomCost: number;
-  /** lotSize · yield */
-  expectedGood: number;
-  /** lotSize − expectedGood */
-  scrapUnits: number;
-  /** scrapUnits · bomCost */
-  scrapCost: number;
-  /** bomCost / yield (null at zero yield: no good unit) */
-  costPerGoodUnit: number | null;
-}
-
 /**
  * Economics of a lot built from this run's netlist: every unit costs the BOM, only `yield` of them pass.
  * @returns null while the run has no yield
@@ -80,6 +67,6 @@ export function runEconomics(run: Pick<Run, "lotSize" | "bomCost" | "yieldFracti
 }
 
 /** GET /api/runs/:id: the summary plus the run's copied inputs. */
-export function presentRunDetail(run: RunWithRelations, extras: RunSummaryExtras = {}) {
+export function presentRunDetail(run: RunWithRelations, extras: RunSummaryExtras = {}): RunDetail {
   return { ...presentRunSummary(run, extras), options: run.options, limits: run.limits, gradeOverrides: run.gradeOverrides, netlist: run.netlist };
 }

@@ -1,10 +1,11 @@
 import type { AuthUser } from "../auth/sessions";
 import type { Invitation, OutboxMessage, User } from "../entities";
+import type { AuthUserView, Invitation as InvitationView, Member, OutboxMessage as OutboxMessageView } from "../../shared/contracts";
 
 /** The signed-in person, as `/api/auth/me` shows them. */
-export const presentAuthUser = (u: AuthUser) => ({ id: u.id, email: u.email, name: u.name, roles: u.roles });
+export const presentAuthUser = (u: Pick<AuthUser, "id" | "email" | "name" | "roles">): AuthUserView => ({ id: u.id, email: u.email, name: u.name, roles: u.roles });
 
-export const presentMember = (u: User) => ({
+export const presentMember = (u: User): Member => ({
   id: u.id,
   email: u.email,
   name: u.name,
@@ -13,7 +14,7 @@ export const presentMember = (u: User) => ({
   createdAt: u.createdAt.toISOString(),
 });
 
-export const presentInvitation = (i: Invitation & { invitedBy?: User }) => ({
+export const presentInvitation = (i: Invitation & { invitedBy?: User }): InvitationView => ({
   id: i.id,
   email: i.email,
   roles: i.roles,
@@ -24,7 +25,7 @@ export const presentInvitation = (i: Invitation & { invitedBy?: User }) => ({
   invitedBy: i.invitedBy?.name ?? i.invitedById,
 });
 
-export const presentOutboxMessage = (m: OutboxMessage) => ({
+export const presentOutboxMessage = (m: OutboxMessage): OutboxMessageView => ({
   id: m.id,
   from: m.from,
   to: m.to,

@@ -16,6 +16,9 @@ export interface RouteInfo {
   /** Full path under /api, e.g. "/team/members/:id". */
   path: string;
   access: Access;
+  /** the zod schemas the route validates its body and query with (the API contract's request schemas) */
+  body?: z.ZodType;
+  query?: z.ZodType;
 }
 
 export interface RouteInput<B, Q> {
@@ -52,7 +55,7 @@ export class ApiRouter {
   delete<Q = undefined>(path: string, spec: RouteSpec<undefined, Q>) { this.add("delete", path, spec); }
 
   private add<B, Q>(method: HttpMethod, path: string, spec: RouteSpec<B, Q>): void {
-    this.routes.push({ method, path: this.prefix + path, access: spec.access });
+    this.routes.push({ method, path: this.prefix + path, access: spec.access, body: spec.body, query: spec.query });
     this.router[method](path, async (req: Request, res: Response) => {
       const user = (res.locals.user as AuthUser | null | undefined) ?? null;
       authorize(spec.access, user);

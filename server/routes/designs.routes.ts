@@ -10,13 +10,11 @@ import { measuredFromUpload, netlistFromUpload } from "../services/revision-file
 import { MEASURED_UPLOAD_LIMIT, receiveUpload, REVISION_UPLOAD_LIMIT } from "../services/uploads";
 import type { Netlist } from "../../shared/engine/netlist";
 import {
-  createDesignSchema, listDesignsQuerySchema, measuredUploadFieldsSchema, revisionBodySchema, revisionUploadFieldsSchema, updateDesignSchema,
+  createDesignSchema, listDesignsQuerySchema, measuredUploadFieldsSchema, replaceRevisionSchema, revisionBodySchema, revisionUploadFieldsSchema, updateDesignSchema,
 } from "../../shared/schemas/design";
 import { ApiRouter, parseInput } from "./api-router";
+import { ACCESS } from "../../shared/contracts/access";
 
-const DESIGNER = ["designer"] as const;
-const MEASURERS = ["designer", "analyst"] as const;
-const replaceRevisionSchema = revisionBodySchema.omit({ parentId: true });
 
 /** Designs, revisions (typed or uploaded) and measured responses. Reads are open to every signed-in person. */
 export function designsRoutes(ctx: AppContext): ApiRouter {
@@ -32,7 +30,7 @@ export function designsRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.post("/designs", {
-    access: DESIGNER,
+    access: ACCESS.editDesigns,
     body: createDesignSchema,
     handler: async ({ res, body, user }) => {
       const { design, revision } = await createDesign(ctx, user!, body);
@@ -49,7 +47,7 @@ export function designsRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.patch("/designs/:id", {
-    access: DESIGNER,
+    access: ACCESS.editDesigns,
     body: updateDesignSchema,
     handler: async ({ req, res, body }) => {
       const [view] = await designViews(ctx, [await updateDesign(ctx, id(req.params), body)]);
@@ -65,7 +63,7 @@ export function designsRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.post("/designs/:id/revisions", {
-    access: DESIGNER,
+    access: ACCESS.editDesigns,
     body: revisionBodySchema,
     handler: async ({ req, res, body, user }) => {
       const revision = await addRevision(ctx, user!, id(req.params), { ...body, netlist: body.netlist as Netlist });
@@ -74,7 +72,7 @@ export function designsRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.put("/revisions/:id", {
-    access: DESIGNER,
+    access: ACCESS.editDesigns,
     body: replaceRevisionSchema,
     handler: async ({ req, res, body }) => {
       const revision = await replaceRevision(ctx, id(req.params), { ...body, netlist: body.netlist as Netlist });
@@ -83,7 +81,7 @@ export function designsRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.post("/designs/:id/revisions/upload", {
-    access: DESIGNER,
+    access: ACCESS.editDesigns,
     handler: async ({ req, res, user }) => {
       const designId = id(req.params);
       await findDesign(ctx, designId);
@@ -97,7 +95,7 @@ export function designsRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.post("/designs/:id/measured", {
-    access: MEASURERS,
+    access: ACCESS.uploadMeasured,
     handler: async ({ req, res, user }) => {
       const designId = id(req.params);
       await findDesign(ctx, designId);
@@ -118,7 +116,7 @@ export function designsRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.delete("/measured/:id", {
-    access: DESIGNER,
+    access: ACCESS.editDesigns,
     handler: async ({ req, res }) => {
       const result = await ctx.dataSource.getRepository(MeasuredResponse).delete({ id: id(req.params) });
       if (result.affected !== 1) throw notFound("That measured response");

@@ -5,8 +5,7 @@ import {
 } from "../services/limit-sets";
 import { gradeBodySchema, limitSetBodySchema } from "../../shared/schemas/design";
 import { ApiRouter } from "./api-router";
-
-const PLANNER = ["planner"] as const;
+import { ACCESS } from "../../shared/contracts/access";
 
 /** Acceptance limit sets per design and the grade catalogue (planners edit; everyone signed in reads). */
 export function limitsRoutes(ctx: AppContext): ApiRouter {
@@ -21,7 +20,7 @@ export function limitsRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.post("/designs/:id/limit-sets", {
-    access: PLANNER,
+    access: ACCESS.editLimits,
     body: limitSetBodySchema,
     handler: async ({ req, res, body, user }) => {
       res.status(201).json({ limitSet: presentLimitSet(await createLimitSet(ctx, user!, id(req.params), body)) });
@@ -29,7 +28,7 @@ export function limitsRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.put("/limit-sets/:id", {
-    access: PLANNER,
+    access: ACCESS.editLimits,
     body: limitSetBodySchema,
     handler: async ({ req, res, body }) => {
       res.json({ limitSet: presentLimitSet(await updateLimitSet(ctx, id(req.params), body)) });
@@ -37,7 +36,7 @@ export function limitsRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.delete("/limit-sets/:id", {
-    access: PLANNER,
+    access: ACCESS.editLimits,
     handler: async ({ req, res }) => {
       await deleteLimitSet(ctx, id(req.params));
       res.status(204).end();
@@ -52,7 +51,7 @@ export function limitsRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.post("/grades", {
-    access: PLANNER,
+    access: ACCESS.editLimits,
     body: gradeBodySchema,
     handler: async ({ res, body }) => {
       res.status(201).json({ grade: presentGrade(await createGrade(ctx, body)) });
@@ -60,7 +59,7 @@ export function limitsRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.put("/grades/:id", {
-    access: PLANNER,
+    access: ACCESS.editLimits,
     body: gradeBodySchema,
     handler: async ({ req, res, body }) => {
       res.json({ grade: presentGrade(await updateGrade(ctx, id(req.params), body)) });
@@ -68,7 +67,7 @@ export function limitsRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.delete("/grades/:id", {
-    access: PLANNER,
+    access: ACCESS.editLimits,
     handler: async ({ req, res }) => {
       await deleteGrade(ctx, id(req.params));
       res.status(204).end();

@@ -15,6 +15,7 @@ import {
   type ReviewActionInput,
 } from "../../shared/schemas/review";
 import { ApiRouter, parseInput } from "./api-router";
+import { ACCESS } from "../../shared/contracts/access";
 
 /** Validates a query string so that failures are reported as `query.<field>` (e.g. `query.pageSize`). */
 function parseQuery<T>(schema: z.ZodType<T>, query: unknown): T {
@@ -66,7 +67,7 @@ export function reviewsRoutes(ctx: AppContext): ApiRouter {
 
   // Route access lets both roles in; the action's own role is checked by the service ("approve" by a designer → 403).
   api.post<ReviewActionInput>("/revisions/:id/review", {
-    access: ["designer", "reviewer"],
+    access: ACCESS.reviewRevisions,
     body: reviewActionSchema,
     handler: async ({ req, res, body, user }) => {
       res.json(await applyReviewAction(ctx, user!, String(req.params.id), body));
@@ -74,7 +75,7 @@ export function reviewsRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.post<CreateSweepInput>("/sweeps", {
-    access: ["analyst"],
+    access: ACCESS.launchSweeps,
     body: createSweepSchema,
     handler: async ({ res, body, user }) => {
       const { sweep, runs } = await createSweep(ctx, user!, body);

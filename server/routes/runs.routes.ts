@@ -10,8 +10,8 @@ import type { RunEvent } from "../services/run-queue";
 import { createRun, findRun, runDetail } from "../services/runs";
 import { createRunSchema } from "../../shared/schemas/run-request";
 import { ApiRouter } from "./api-router";
+import { ACCESS } from "../../shared/contracts/access";
 
-const LAUNCHERS = ["designer", "planner", "analyst"] as const;
 const FINISHED = new Set(["done", "failed", "cancelled"]);
 /** SSE tick (ms): session check and a narrow read of the run row (progress itself comes from the queue's events). */
 const SSE_TICK_MS = 2000;
@@ -45,7 +45,7 @@ export function runsRoutes(ctx: AppContext): ApiRouter {
   const api = new ApiRouter();
 
   api.post("/runs", {
-    access: LAUNCHERS,
+    access: ACCESS.launchRuns,
     body: createRunSchema,
     handler: async ({ res, body, user }) => {
       const run = await createRun(ctx, user!, body);
@@ -114,7 +114,7 @@ export function runsRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.post("/runs/:id/cancel", {
-    access: LAUNCHERS,
+    access: ACCESS.launchRuns,
     handler: async ({ req, res }) => {
       const run = await findRun(ctx, String(req.params.id));
       if (!(await ctx.runQueue.cancel(run.id))) throw new AppError("RUN_FINISHED", `This run has already ended (${run.state === "running" || run.state === "queued" ? "just now" : run.state}).`);

@@ -4,6 +4,7 @@ import { presentOutboxMessage } from "../presenters/user.presenter";
 import { runLimits, saveRunLimits } from "../services/run-limits";
 import { computeLimitsSchema, DEFAULT_COMPUTE_LIMITS } from "../../shared/schemas/settings";
 import { ApiRouter } from "./api-router";
+import { ACCESS } from "../../shared/contracts/access";
 
 /** Health (public, for monitoring) and the local mail stand-in's outbox (admin, development and demo only). */
 export function systemRoutes(ctx: AppContext): ApiRouter {
@@ -32,7 +33,7 @@ export function systemRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.put("/settings/compute-limits", {
-    access: ["admin"],
+    access: ACCESS.administer,
     body: computeLimitsSchema,
     handler: async ({ res, body, user }) => {
       res.json({ limits: await saveRunLimits(ctx, user!.id, body), defaults: DEFAULT_COMPUTE_LIMITS });
@@ -40,7 +41,7 @@ export function systemRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.get("/outbox", {
-    access: ["admin"],
+    access: ACCESS.administer,
     handler: async ({ res }) => {
       const messages = await ctx.dataSource.getRepository(OutboxMessage).find({ order: { receivedAt: "DESC" }, take: 200 });
       res.json({ messages: messages.map(presentOutboxMessage), mode: ctx.mailer.mode });

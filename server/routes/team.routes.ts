@@ -6,8 +6,7 @@ import { presentInvitation, presentMember } from "../presenters/user.presenter";
 import { inviteMember } from "../services/accounts";
 import { createInvitationSchema, updateMemberSchema } from "../../shared/schemas/team";
 import { ApiRouter } from "./api-router";
-
-const ADMIN = ["admin"] as const;
+import { ACCESS } from "../../shared/contracts/access";
 
 /** People, roles and invitations (admin only). */
 export function teamRoutes(ctx: AppContext): ApiRouter {
@@ -15,7 +14,7 @@ export function teamRoutes(ctx: AppContext): ApiRouter {
   const users = () => ctx.dataSource.getRepository(User);
 
   api.get("/members", {
-    access: ADMIN,
+    access: ACCESS.administer,
     handler: async ({ res }) => {
       const members = await users().find({ order: { name: "ASC" } });
       res.json({ members: members.map(presentMember) });
@@ -23,7 +22,7 @@ export function teamRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.patch("/members/:id", {
-    access: ADMIN,
+    access: ACCESS.administer,
     body: updateMemberSchema,
     handler: async ({ req, res, body }) => {
       const member = await users().findOneBy({ id: String(req.params.id) });
@@ -40,7 +39,7 @@ export function teamRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.get("/invitations", {
-    access: ADMIN,
+    access: ACCESS.administer,
     handler: async ({ res }) => {
       const invitations = await ctx.dataSource.getRepository(Invitation).find({ order: { createdAt: "DESC" }, relations: { invitedBy: true }, take: 200 });
       res.json({ invitations: invitations.map(presentInvitation) });
@@ -48,7 +47,7 @@ export function teamRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.post("/invitations", {
-    access: ADMIN,
+    access: ACCESS.administer,
     body: createInvitationSchema,
     handler: async ({ res, body, user }) => {
       const invitation = await inviteMember(ctx, user!, body.email, body.roles);
@@ -57,7 +56,7 @@ export function teamRoutes(ctx: AppContext): ApiRouter {
   });
 
   api.delete("/invitations/:id", {
-    access: ADMIN,
+    access: ACCESS.administer,
     handler: async ({ req, res }) => {
       const result = await ctx.dataSource.getRepository(Invitation).update({ id: String(req.params.id), acceptedAt: IsNull(), revokedAt: IsNull() }, { revokedAt: new Date() });
       if (result.affected !== 1) throw notFound("An open invitation with that id");

@@ -7,6 +7,7 @@ import { randomUUID } from "node:crypto";
 import type { DataSource } from "typeorm";
 import { Design, DesignRevision, Grade, LimitSet } from "../entities";
 import type { SweepSetting } from "../entities/design-revision.entity";
+import { DEFAULT_STRESS_CLASS, type StressClass } from "../../shared/contracts/vocabulary";
 import { snapToSeries } from "../../shared/engine/e-series";
 import type { Limits } from "../../shared/engine/limits";
 import type { ESeriesName, Netlist, Part } from "../../shared/engine/netlist";
@@ -35,7 +36,7 @@ const RF_GRADING: DemoGrading = { C: ["E24", 0.02, "G"], L: ["E24", 0.05, "J"] }
 interface DemoDesign {
   name: string;
   description: string;
-  stress?: "small-signal" | "mains" | "high-power-rf";
+  stress?: StressClass;
   grades?: DemoGrading;
   spec: LadderSpec;
   sweep: SweepSetting;
@@ -154,7 +155,7 @@ export async function seedDemoDesigns(dataSource: DataSource, ownerIds: DemoOwne
     }
     const ids = { design: randomUUID(), revision: randomUUID(), limitSet: randomUUID() };
     await dataSource.transaction(async (m) => {
-      await m.getRepository(Design).insert({ id: ids.design, name: demo.name, description: demo.description, stress: demo.stress ?? "small-signal", ownerId: ownerIds.designer, archivedAt: null });
+      await m.getRepository(Design).insert({ id: ids.design, name: demo.name, description: demo.description, stress: demo.stress ?? DEFAULT_STRESS_CLASS, ownerId: ownerIds.designer, archivedAt: null });
       await m.getRepository(DesignRevision).insert({
         id: ids.revision, designId: ids.design, number: 1, netlist: demoNetlist(demo.spec, demo.grades), sweep: demo.sweep,
         note: "synthesized from a prototype, snapped to preferred values", parentId: null, reviewState: "draft", locked: false, createdById: ownerIds.designer,

@@ -3,24 +3,15 @@ import { In } from "typeorm";
 import type { AuthUser } from "../auth/sessions";
 import type { AppContext } from "../context";
 import { Design, DesignRevision, ReviewEvent, Run, RunComment, User } from "../entities";
-import type { ReviewState } from "../entities/design-revision.entity";
 import { AppError, notFound } from "../errors";
 import type { OutgoingMail } from "../mail/mailer";
 import { reviewDecidedMail, reviewRequestedMail } from "../mail/review-messages";
 import { presentComment, presentReviewEvent } from "../presenters/review.presenter";
+import { REVIEW_TRANSITIONS } from "../../shared/contracts/access";
 import type { ReviewAction, ReviewActionInput } from "../../shared/schemas/review";
-import type { Role } from "../../shared/roles";
 
-/**
- * A revision's review: draft → in-review (a designer asks) → approved | changes-requested (only a reviewer
- * decides); changes-requested → in-review again when the designer asks anew. Approved is final for that
- * revision (changes go into a new revision).
- */
-export const REVIEW_TRANSITIONS: Record<ReviewAction, { role: Role; from: readonly ReviewState[]; to: ReviewState; verb: string }> = {
-  request: { role: "designer", from: ["draft", "changes-requested"], to: "in-review", verb: "ask for a review" },
-  approve: { role: "reviewer", from: ["in-review"], to: "approved", verb: "approve" },
-  "request-changes": { role: "reviewer", from: ["in-review"], to: "changes-requested", verb: "request changes" },
-};
+/** A revision's review steps and who takes each: shared/contracts/access.ts (the review panel offers the same). */
+export { REVIEW_TRANSITIONS };
 
 export async function listComments(ctx: AppContext, runId: string) {
   if (!(await ctx.dataSource.getRepository(Run).existsBy({ id: runId }))) throw notFound("That run");

@@ -2,6 +2,7 @@ import { z } from "zod";
 import { limitsSchema } from "./limits";
 import { netlistSchema } from "./netlist";
 import { sweepSchema } from "./run";
+import { DISTRIBUTIONS, MAX_GRADE_CODE_LENGTH, PART_KINDS, STRESS_CLASSES } from "../contracts/vocabulary";
 
 /**
  * JSON shapes of the design, revision, limit-set and grade requests (server routes and client forms share them).
@@ -9,8 +10,8 @@ import { sweepSchema } from "./run";
  * (validateLimits against the latest revision) run on the server after these.
  */
 
-/** How the filter is used; mirrors STRESS_CLASSES in server/entities/design.entity.ts. */
-export const stressSchema = z.enum(["small-signal", "mains", "high-power-rf"], { message: 'must be "small-signal", "mains" or "high-power-rf"' });
+/** How the filter is used (STRESS_CLASSES of shared/contracts/vocabulary.ts). */
+export const stressSchema = z.enum(STRESS_CLASSES, { message: `must be ${STRESS_CLASSES.map((s) => `"${s}"`).join(", ").replace(/, ([^,]*)$/, " or $1")}` });
 
 const designName = z.string().trim().min(1, { message: "name is required" }).max(120, { message: "name is at most 120 characters" });
 const description = z.string().max(2000, { message: "description is at most 2000 characters" });
@@ -40,6 +41,9 @@ export const revisionBodySchema = z.strictObject({
   parentId: uuid.optional(),
 });
 
+/** PUT /revisions/:id: the same body, parentId not taken (the revision keeps its parent). */
+export const replaceRevisionSchema = revisionBodySchema.omit({ parentId: true });
+
 /** Text fields sent with a multipart revision upload. */
 export const revisionUploadFieldsSchema = z.object({ note: note.optional() });
 
@@ -56,12 +60,12 @@ export const limitSetBodySchema = z.strictObject({
 
 export const gradeBodySchema = z
   .strictObject({
-    kind: z.enum(["R", "L", "C"], { message: "kind must be R, L or C" }),
-    code: z.string().trim().min(1, { message: "code is required" }).max(40, { message: "code is at most 40 characters" }),
+    kind: z.enum(PART_KINDS, { message: "kind must be R, L or C" }),
+    code: z.string().trim().min(1, { message: "code is required" }).max(MAX_GRADE_CODE_LENGTH, { message: `code is at most ${MAX_GRADE_CODE_LENGTH} characters` }),
     label: z.string().trim().min(1, { message: "label is required" }).max(120, { message: "label is at most 120 characters" }),
     tolerance: z.number({ message: "tolerance must be a number" }).min(0, { message: "tolerance must be ≥ 0" }).max(0.5, { message: "tolerance must be ≤ 0.5" }).optional(),
     toleranceAbs: z.number({ message: "toleranceAbs must be a number" }).positive({ message: "toleranceAbs must be > 0" }).finite().optional(),
-    distribution: z.enum(["normal", "uniform"], { message: "distribution must be normal or uniform" }).optional(),
+    distribution: z.enum(DISTRIBUTIONS, { message: "distribution must be normal or uniform" }).optional(),
     costEach: z.number({ message: "costEach must be a number" }).min(0, { message: "costEach must be ≥ 0" }).max(1_000_000, { message: "costEach must be ≤ 1000000" }),
   })
   .refine((g) => g.tolerance !== undefined || g.toleranceAbs !== undefined, { message: "needs tolerance and/or toleranceAbs", path: ["tolerance"] });

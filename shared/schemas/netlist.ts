@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { DISTRIBUTIONS, MAX_GRADE_CODE_LENGTH, PART_KINDS } from "../contracts/vocabulary";
 
 /**
  * JSON shape of a Lotwise netlist (structure and ranges only), for the API, CLI and upload edges.
@@ -30,11 +31,11 @@ export const partSchema = z.strictObject({
     .min(1, { message: "ref is required" })
     .max(32, { message: "ref is at most 32 characters" })
     .regex(/^[A-Za-z0-9_.-]+$/, { message: "ref may use only letters, digits, _ . -" }),
-  kind: z.enum(["R", "L", "C"]),
+  kind: z.enum(PART_KINDS),
   nodes: z.tuple([nodeNameSchema, nodeNameSchema]),
   value: positive("value"),
   tolerance: z.number().min(0, { message: "tolerance must be ≥ 0" }).max(0.5, { message: "tolerance must be ≤ 0.5" }).optional(),
-  distribution: z.enum(["normal", "uniform"]).optional(),
+  distribution: z.enum(DISTRIBUTIONS).optional(),
   toleranceAbs: nonNegative("toleranceAbs").optional(),
   series: eSeriesNameSchema.optional(),
   lot: z.string().max(32, { message: "lot is at most 32 characters" }).optional(),
@@ -43,7 +44,7 @@ export const partSchema = z.strictObject({
   esr: nonNegative("esr").optional(),
   esl: nonNegative("esl").optional(),
   tempco: z.number({ message: "tempco must be a number" }).optional(),
-  grade: z.string().min(1).max(40, { message: "grade is at most 40 characters" }).optional(),
+  grade: z.string().min(1).max(MAX_GRADE_CODE_LENGTH, { message: `grade is at most ${MAX_GRADE_CODE_LENGTH} characters` }).optional(),
 });
 
 export const netlistSchema = z.object({

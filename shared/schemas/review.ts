@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { REVIEW_ACTIONS, RUN_STATES } from "../contracts/vocabulary";
 import { partRecord } from "./part-record";
 
 /**
@@ -7,11 +8,8 @@ import { partRecord } from "./part-record";
  * (the API answers 400 with `query.pageSize`, `body.assignments.0.label` and so on).
  */
 
-/** Run states, as stored in `run.state` (kept here so the browser can use the schema without server code). */
-export const RUN_STATE_NAMES = ["queued", "running", "done", "failed", "cancelled"] as const;
 export const HISTORY_SORTS = ["queuedAt", "finishedAt", "yield", "state", "design"] as const;
-export const REVIEW_ACTIONS = ["request", "approve", "request-changes"] as const;
-export type ReviewAction = (typeof REVIEW_ACTIONS)[number];
+export { REVIEW_ACTIONS, type ReviewAction } from "../contracts/vocabulary";
 
 /** Longest seed a sweep accepts: the engine's integer seeds run 0..2^31−1. */
 const MAX_SEED = 2147483647;
@@ -51,7 +49,7 @@ export const historyQuerySchema = z
     state: z
       .string({ message: "must be one state or a comma-separated list" })
       .transform((s) => s.split(",").map((x) => x.trim()).filter(Boolean))
-      .pipe(z.array(z.enum(RUN_STATE_NAMES, { message: `must be one of ${RUN_STATE_NAMES.join(", ")}` })).min(1, { message: "must name a state" }))
+      .pipe(z.array(z.enum(RUN_STATES, { message: `must be one of ${RUN_STATES.join(", ")}` })).min(1, { message: "must name a state" }))
       .optional(),
     from: isoDate(false).optional(),
     to: isoDate(true).optional(),

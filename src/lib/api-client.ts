@@ -3,6 +3,9 @@
  * browser (`credentials: "same-origin"`), errors turned into {@link ApiError}.
  */
 
+import type { z } from "zod";
+import { fieldPath } from "@shared/schemas/field-path";
+
 /** A failed request: HTTP status (0 when the server could not be reached), stable code, message. */
 export class ApiError extends Error {
   readonly status: number;
@@ -21,6 +24,27 @@ export class ApiError extends Error {
   get isClientError(): boolean {
     return this.status >= 400 && this.status < 500;
   }
+}
+
+/**
+ * Checks a request body with the endpoint's contract schema (the same object the server validates with) before it
+ * is sent: a failure is the 400 VALIDATION_FAILED the server would answer, fields named the same way, so forms show
+ * it like any other refusal. The value goes out as given (the server applies the schema's own trimming).
+ */
+export function checkBody<T>(schema: z.ZodType, value: T): T {
+  const parsed = schema.safeParse(value);
+  if (parsed.success) return value;
+  const fields: Record<string, string> = {};
+  for (const issue of parsed.error.issues) {
+    const keys = issue.code === "unrecognized_keys" ? issue.keys : [undefined];
+    for (const key of keys) {
+      const at = key === undefined ? issue.path : [...issue.path, key];
+      const path = at.length ? fieldPath(at) : "body";
+      fields[path] ??= key === undefined ? issue.message : `${key} is not a field this request takes`;
+    }
+  }
+  const [firstPath, firstMessage] = Object.entries(fields)[0];
+  throw new ApiError(400, "VALIDATION_FAILED", `${firstPath}: ${firstMessage}`, fields);
 }
 
 type UnauthenticatedHandler = () => void;

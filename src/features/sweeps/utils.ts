@@ -1,5 +1,5 @@
-import type { Grade } from "@/features/runs/api/get-launch-data";
-import type { NetlistPartJson } from "@/features/runs/api/types";
+import type { Grade } from "@shared/contracts";
+import type { Part as NetlistPartJson } from "@shared/engine/netlist";
 import type { Assignment } from "@/features/sweeps/api/sweeps";
 
 /**

@@ -1,5 +1,5 @@
 import { useOutletContext } from "react-router-dom";
-import type { User } from "@/features/auth/api/types";
+import type { AuthUserView as User } from "@shared/contracts";
 
 /** What the app frame hands to every signed-in page. */
 export type AppOutletContext = { user: User };

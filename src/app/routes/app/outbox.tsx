@@ -1,5 +1,5 @@
 import { useQueryClient, type QueryClient } from "@tanstack/react-query";
-import { hasAnyRole } from "@shared/roles";
+import { ACCESS, hasAnyRole } from "@shared/contracts";
 import { ForbiddenNotice } from "@/components/errors/forbidden-notice";
 import { RegionBoundary } from "@/components/errors/region-boundary";
 import { PageHeader } from "@/components/layouts/page-header";
@@ -12,7 +12,7 @@ import { useAppUser } from "@/app/routes/app/app-context";
 
 export const clientLoader = (queryClient: QueryClient) => async () => {
   const me = await queryClient.ensureQueryData(getMeQueryOptions());
-  if (me && hasAnyRole(me.roles, ["admin"])) void queryClient.prefetchQuery(getOutboxQueryOptions());
+  if (me && hasAnyRole(me.roles, ACCESS.administer)) void queryClient.prefetchQuery(getOutboxQueryOptions());
   return null;
 };
 
@@ -20,7 +20,7 @@ export const clientLoader = (queryClient: QueryClient) => async () => {
 export default function OutboxRoute() {
   const user = useAppUser();
   const queryClient = useQueryClient();
-  if (!hasAnyRole(user.roles, ["admin"])) {
+  if (!hasAnyRole(user.roles, ACCESS.administer)) {
     return <ForbiddenNotice screen="Outbox" role="admin" />;
   }
 

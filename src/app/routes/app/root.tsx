@@ -1,13 +1,13 @@
 import type { QueryClient } from "@tanstack/react-query";
 import { Navigate, Outlet, useLocation } from "react-router-dom";
-import { hasAnyRole } from "@shared/roles";
+import { ACCESS, hasAnyRole } from "@shared/contracts";
 import { RegionBoundary } from "@/components/errors/region-boundary";
 import { AppLayout, type NavItem } from "@/components/layouts/app-layout";
 import { LoadingRegion } from "@/components/ui/spinner";
 import { paths } from "@/config/paths";
 import { getMeQueryOptions, useMe } from "@/features/auth/api/get-me";
 import { useSignOut } from "@/features/auth/api/sign-out";
-import type { User } from "@/features/auth/api/types";
+import type { AuthUserView as User } from "@shared/contracts";
 import { HealthIndicator } from "@/features/health/components/health-indicator";
 import type { AppOutletContext } from "@/app/routes/app/app-context";
 import { designNavItems } from "@/app/routes/app/designs/routes";
@@ -22,7 +22,7 @@ export const clientLoader = (queryClient: QueryClient) => async () => {
 /** Only the screens that work today; more join as they are built. */
 function navItemsFor(user: User): NavItem[] {
   const items: NavItem[] = [{ name: "Overview", to: paths.app.overview.getHref(), end: true }, ...designNavItems(user), ...runNavItems(user)];
-  if (hasAnyRole(user.roles, ["admin"])) {
+  if (hasAnyRole(user.roles, ACCESS.administer)) {
     items.push({ name: "Team", to: paths.app.team.getHref() });
     items.push({ name: "Outbox", to: paths.app.outbox.getHref() });
   }

@@ -1,5 +1,5 @@
 import type { QueryClient } from "@tanstack/react-query";
-import { hasAnyRole } from "@shared/roles";
+import { ACCESS, hasAnyRole } from "@shared/contracts";
 import { ForbiddenNotice } from "@/components/errors/forbidden-notice";
 import { RegionBoundary } from "@/components/errors/region-boundary";
 import { PageHeader } from "@/components/layouts/page-header";
@@ -17,7 +17,7 @@ import { useAppUser } from "@/app/routes/app/app-context";
 /** Starts both team reads while the page module loads (admins only; others would get 403). */
 export const clientLoader = (queryClient: QueryClient) => async () => {
   const me = await queryClient.ensureQueryData(getMeQueryOptions());
-  if (me && hasAnyRole(me.roles, ["admin"])) {
+  if (me && hasAnyRole(me.roles, ACCESS.administer)) {
     void queryClient.prefetchQuery(getMembersQueryOptions());
     void queryClient.prefetchQuery(getInvitationsQueryOptions());
     void queryClient.prefetchQuery(getComputeLimitsQueryOptions());
@@ -27,7 +27,7 @@ export const clientLoader = (queryClient: QueryClient) => async () => {
 
 export default function TeamRoute() {
   const user = useAppUser();
-  if (!hasAnyRole(user.roles, ["admin"])) {
+  if (!hasAnyRole(user.roles, ACCESS.administer)) {
     return <ForbiddenNotice screen="Team" role="admin" />;
   }
 

@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
-import type { InvitationPreview } from "@/features/auth/api/types";
+import { authKeys } from "@/features/auth/api/get-me";
+import type { InvitationPreview } from "@shared/contracts";
 
 export async function getInvitation(token: string): Promise<InvitationPreview> {
   const { invitation } = await api.get<{ invitation: InvitationPreview }>(
@@ -11,7 +12,7 @@ export async function getInvitation(token: string): Promise<InvitationPreview> {
 
 export function getInvitationQueryOptions(token: string) {
   return queryOptions({
-    queryKey: ["invitation-preview", token] as const,
+    queryKey: authKeys.invitation(token),
     queryFn: () => getInvitation(token),
     staleTime: 60_000,
   });

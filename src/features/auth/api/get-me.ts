@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { api, ApiError } from "@/lib/api-client";
-import type { User } from "@/features/auth/api/types";
+import type { AuthUserView as User } from "@shared/contracts";
 
 /** The signed-in person, or null when nobody is signed in (401 is an answer here, not an error). */
 export async function getMe(): Promise<User | null> {
@@ -13,9 +13,15 @@ export async function getMe(): Promise<User | null> {
   }
 }
 
+/** Query keys of the session and what a visitor reads before signing in (the auth feature owns them). */
+export const authKeys = {
+  me: ["auth", "me"] as const,
+  invitation: (token: string) => ["invitation-preview", token] as const,
+};
+
 export function getMeQueryOptions() {
   return queryOptions({
-    queryKey: ["auth", "me"] as const,
+    queryKey: authKeys.me,
     queryFn: getMe,
     staleTime: 5 * 60_000,
   });

@@ -1,6 +1,6 @@
 import type { QueryClient } from "@tanstack/react-query";
 import { getMeQueryOptions } from "@/features/auth/api/get-me";
-import type { User } from "@/features/auth/api/types";
+import type { AuthUserView as User } from "@shared/contracts";
 
 /**
  * Starts the cache afresh for a new session (or none): drops everything read under the previous

@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from "@tanstack/react-query";
 import type { SignInInput } from "@shared/schemas/auth";
 import { api } from "@/lib/api-client";
 import { resetSessionCache } from "@/features/auth/api/session-cache";
-import type { User } from "@/features/auth/api/types";
+import type { AuthUserView as User } from "@shared/contracts";
 
 export { signInSchema } from "@shared/schemas/auth";
 

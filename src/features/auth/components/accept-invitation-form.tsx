@@ -5,7 +5,7 @@ import { TextField } from "@/components/ui/text-field";
 import { useForm } from "@/hooks/use-form";
 import { phraseFieldError, validateWith } from "@/lib/form";
 import { acceptInvitationSchema, useAcceptInvitation } from "@/features/auth/api/accept-invitation";
-import type { User } from "@/features/auth/api/types";
+import type { AuthUserView as User } from "@shared/contracts";
 import { checkRepeat, NewPasswordFields } from "@/features/auth/components/new-password-fields";
 
 /** Name and password for a new account; on success the person is signed in. */

@@ -1,6 +1,6 @@
 import { ROLE_PURPOSE } from "@shared/roles";
 import { formatDateTime } from "@/utils/format";
-import type { InvitationPreview } from "@/features/auth/api/types";
+import type { InvitationPreview } from "@shared/contracts";
 
 /** Who is invited, with which roles, until when. */
 export function InvitationSummary({ invitation }: { invitation: InvitationPreview }) {

@@ -7,7 +7,7 @@ import { paths } from "@/config/paths";
 import { useForm } from "@/hooks/use-form";
 import { phraseFieldError, validateWith } from "@/lib/form";
 import { signInSchema, useSignIn } from "@/features/auth/api/sign-in";
-import type { User } from "@/features/auth/api/types";
+import type { AuthUserView as User } from "@shared/contracts";
 
 /** E-mail and password; Enter submits. Wrong credentials and rate limits show above the button. */
 export function SignInForm({ onSuccess }: { onSuccess?: (user: User) => void }) {

@@ -1,11 +1,7 @@
 import { Card } from "@/components/ui/card";
 import type { CompareEntry } from "@/features/compare/api/get-compare";
-import { overlaidHistogramOption } from "@/features/runs/components/charts/bar-options";
 import { ResponseChart, type ChartBand, type ChartSeries } from "@/components/charts/response-chart";
-import { LazyChart } from "@/features/runs/components/charts/lazy-chart";
-import { envelopeOf } from "@/features/runs/utils/analysis";
-import { maskOf, percentileRow } from "@/features/runs/utils/chart-props";
-import { ruleName } from "@/features/runs/utils/format";
+import { envelopeOf, LazyChart, maskOf, overlaidHistogramOption, percentileRow, ruleName } from "@/features/runs";
 
 /** Overlaid |S| spreads (median and 5–95 % band per run) and overlaid margin histograms per rule. */
 export function CompareCharts({ entries, colors }: { entries: CompareEntry[]; colors: readonly string[] }) {

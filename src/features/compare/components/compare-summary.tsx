@@ -2,7 +2,7 @@ import { Link } from "react-router-dom";
 import { Table, TableBody, TableCaption, TableCell, TableHead, TableHeaderCell, TableRow } from "@/components/ui/table";
 import { paths } from "@/config/paths";
 import type { CompareEntry } from "@/features/compare/api/get-compare";
-import { count, interval, money, percent, ruleName } from "@/features/runs/utils/format";
+import { count, interval, money, percent, ruleName } from "@/features/runs";
 
 /** Runs as columns: yield ± interval, trials, BOM cost, then failing trials per rule (rules matched by position). */
 export function CompareSummary({ entries, colors }: { entries: CompareEntry[]; colors: readonly string[] }) {
@@ -24,7 +24,7 @@ export function CompareSummary({ entries, colors }: { entries: CompareEntry[]; c
         </tr>
       </TableHead>
       <TableBody>
-        <Row name="yield" cells={entries.map((e) => <span className={e.result?.yield === best ? "text-2xl font-bold text-pass-300" : "text-2xl"}>{percent(e.result?.yield)}</span>)} />
+        <Row name="yield" cells={entries.map((e) => <span key={e.run.id} className={e.result?.yield === best ? "text-2xl font-bold text-pass-300" : "text-2xl"}>{percent(e.result?.yield)}</span>)} />
         <Row name="95 % interval" cells={entries.map((e) => interval(e.result?.wilson95))} />
         <Row name="trials" cells={entries.map((e) => count(e.result?.trials))} />
         <Row name="seed" cells={entries.map((e) => String(e.run.seed))} />

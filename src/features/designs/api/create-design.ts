@@ -1,12 +1,13 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import type { Netlist } from "@shared/engine/netlist";
-import { api } from "@/lib/api-client";
-import type { Design, Revision, StressClass, SweepSetting } from "@/features/designs/api/types";
+import type { DesignView, Revision } from "@shared/contracts";
+import { createDesignSchema, type CreateDesignInput } from "@shared/schemas/design";
+import { api, checkBody } from "@/lib/api-client";
+import { designKeys } from "@/features/designs/api/keys";
 
-export type CreateDesignInput = { name: string; description?: string; stress?: StressClass; netlist: Netlist; sweep?: SweepSetting };
+export type { CreateDesignInput };
 
-export function createDesign(input: CreateDesignInput): Promise<{ design: Design; revision: Revision }> {
-  return api.post<{ design: Design; revision: Revision }>("/designs", input);
+export function createDesign(input: CreateDesignInput): Promise<{ design: DesignView; revision: Revision }> {
+  return api.post<{ design: DesignView; revision: Revision }>("/designs", checkBody(createDesignSchema, input));
 }
 
 /** Creates a design with its first revision (designer). 400 names `netlist.parts[k].field`. */
@@ -14,6 +15,6 @@ export function useCreateDesign() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: createDesign,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: ["designs"] }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: designKeys.lists() }),
   });
 }

@@ -1,14 +1,15 @@
 import { queryOptions, useSuspenseQuery } from "@tanstack/react-query";
+import type { DesignView } from "@shared/contracts";
 import { api } from "@/lib/api-client";
-import type { Design } from "@/features/designs/api/types";
+import { designKeys } from "@/features/designs/api/keys";
 
-export async function getDesigns(archived: boolean): Promise<Design[]> {
-  const { designs } = await api.get<{ designs: Design[] }>(`/designs?archived=${archived}`);
+export async function getDesigns(archived: boolean): Promise<DesignView[]> {
+  const { designs } = await api.get<{ designs: DesignView[] }>(`/designs?archived=${archived}`);
   return designs;
 }
 
 export function getDesignsQueryOptions(archived = false) {
-  return queryOptions({ queryKey: ["designs", { archived }] as const, queryFn: () => getDesigns(archived) });
+  return queryOptions({ queryKey: designKeys.list(archived), queryFn: () => getDesigns(archived) });
 }
 
 export function useDesigns(archived = false) {

@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
+import type { Measured } from "@shared/contracts";
 import { api } from "@/lib/api-client";
-import type { Measured } from "@/features/designs/api/types";
+import { measuredKeys } from "@/features/designs/api/keys";
 
 export async function getMeasured(id: string): Promise<Measured> {
   const { measured } = await api.get<{ measured: Measured }>(`/measured/${encodeURIComponent(id)}`);
@@ -8,7 +9,7 @@ export async function getMeasured(id: string): Promise<Measured> {
 }
 
 export function getMeasuredQueryOptions(id: string) {
-  return queryOptions({ queryKey: ["measured", id] as const, queryFn: () => getMeasured(id), staleTime: Infinity });
+  return queryOptions({ queryKey: measuredKeys.detail(id), queryFn: () => getMeasured(id), staleTime: Infinity });
 }
 
 /** A stored measured response (|S| dB per pair) for the overlay; idle while `id` is null. */

@@ -1,9 +1,9 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
+import type { Revision, SweepSetting } from "@shared/contracts";
 import type { Netlist } from "@shared/engine/netlist";
-import { api } from "@/lib/api-client";
-import { getDesignQueryOptions } from "@/features/designs/api/get-design";
-import { getRevisionQueryOptions } from "@/features/designs/api/get-revision";
-import type { Revision, SweepSetting } from "@/features/designs/api/types";
+import { replaceRevisionSchema, revisionBodySchema } from "@shared/schemas/design";
+import { api, checkBody } from "@/lib/api-client";
+import { designKeys, revisionKeys } from "@/features/designs/api/keys";
 
 export type SaveRevisionInput = {
   designId: string;
@@ -15,16 +15,17 @@ export type SaveRevisionInput = {
   note?: string;
 };
 
+/** Checked with the server's own schemas before sending (a 400 then names the same fields). */
 export async function saveRevision(input: SaveRevisionInput): Promise<Revision> {
   const body = { netlist: input.netlist, sweep: input.sweep, note: input.note };
   if (input.revisionId) {
-    const { revision } = await api.put<{ revision: Revision }>(`/revisions/${encodeURIComponent(input.revisionId)}`, body);
+    const { revision } = await api.put<{ revision: Revision }>(`/revisions/${encodeURIComponent(input.revisionId)}`, checkBody(replaceRevisionSchema, body));
     return revision;
   }
-  const { revision } = await api.post<{ revision: Revision }>(`/designs/${encodeURIComponent(input.designId)}/revisions`, {
-    ...body,
-    parentId: input.parentId,
-  });
+  const { revision } = await api.post<{ revision: Revision }>(
+    `/designs/${encodeURIComponent(input.designId)}/revisions`,
+    checkBody(revisionBodySchema, { ...body, parentId: input.parentId }),
+  );
   return revision;
 }
 
@@ -34,9 +35,9 @@ export function useSaveRevision() {
   return useMutation({
     mutationFn: saveRevision,
     onSuccess: (revision, input) => {
-      queryClient.setQueryData(getRevisionQueryOptions(revision.id).queryKey, revision);
-      void queryClient.invalidateQueries({ queryKey: getDesignQueryOptions(input.designId).queryKey });
-      void queryClient.invalidateQueries({ queryKey: ["designs"], exact: false });
+      queryClient.setQueryData(revisionKeys.detail(revision.id), revision);
+      void queryClient.invalidateQueries({ queryKey: designKeys.detail(input.designId) });
+      void queryClient.invalidateQueries({ queryKey: designKeys.lists() });
     },
   });
 }

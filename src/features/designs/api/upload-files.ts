@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
-import { getDesignQueryOptions } from "@/features/designs/api/get-design";
-import type { MeasuredSummary, Revision } from "@/features/designs/api/types";
+import type { MeasuredSummary, Revision } from "@shared/contracts";
+import { designKeys, measuredKeys, revisionKeys } from "@/features/designs/api/keys";
 
 export type UploadInput = { designId: string; file: File; name?: string; note?: string };
 
@@ -14,7 +14,11 @@ export function useUploadRevision() {
       const { revision } = await api.upload<{ revision: Revision }>(`/designs/${encodeURIComponent(designId)}/revisions/upload`, file, fields);
       return revision;
     },
-    onSuccess: (_r, input) => queryClient.invalidateQueries({ queryKey: getDesignQueryOptions(input.designId).queryKey }),
+    onSuccess: (revision, input) => {
+      queryClient.setQueryData(revisionKeys.detail(revision.id), revision);
+      void queryClient.invalidateQueries({ queryKey: designKeys.lists() });
+      return queryClient.invalidateQueries({ queryKey: designKeys.detail(input.designId) });
+    },
   });
 }
 
@@ -28,7 +32,7 @@ export function useUploadMeasured() {
       });
       return measured;
     },
-    onSuccess: (_m, input) => queryClient.invalidateQueries({ queryKey: getDesignQueryOptions(input.designId).queryKey }),
+    onSuccess: (_m, input) => queryClient.invalidateQueries({ queryKey: designKeys.detail(input.designId) }),
   });
 }
 
@@ -37,6 +41,9 @@ export function useDeleteMeasured(designId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (id: string) => api.delete(`/measured/${encodeURIComponent(id)}`),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: getDesignQueryOptions(designId).queryKey }),
+    onSuccess: (_r, id) => {
+      queryClient.removeQueries({ queryKey: measuredKeys.detail(id) });
+      return queryClient.invalidateQueries({ queryKey: designKeys.detail(designId) });
+    },
   });
 }

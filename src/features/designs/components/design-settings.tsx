@@ -3,7 +3,7 @@ import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
 import { TextField } from "@/components/ui/text-field";
 import { useUpdateDesign } from "@/features/designs/api/update-design";
-import { STRESS_CLASSES, STRESS_LABELS, type Design, type StressClass } from "@/features/designs/api/types";
+import { STRESS_CLASSES, STRESS_LABELS, type DesignView as Design, type StressClass } from "@shared/contracts";
 import { SelectField } from "@/features/designs/components/select-field";
 
 const OPTIONS = STRESS_CLASSES.map((s) => [s, STRESS_LABELS[s]] as const);

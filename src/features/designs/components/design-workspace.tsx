@@ -1,7 +1,7 @@
 import { useState } from "react";
 import { Card } from "@/components/ui/card";
 import { useMeasured } from "@/features/designs/api/get-measured";
-import type { DesignDetail, Revision } from "@/features/designs/api/types";
+import type { DesignDetail, Revision } from "@shared/contracts";
 import { usePartsEditor } from "@/features/designs/hooks/use-parts-editor";
 import { NominalPlot, type MaskRule } from "@/features/designs/components/nominal-plot";
 import { PartsTable, type GradeOption } from "@/features/designs/components/parts-table";

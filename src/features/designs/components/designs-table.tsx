@@ -5,7 +5,7 @@ import { Table, TableBody, TableCaption, TableCell, TableHead, TableHeaderCell, 
 import { paths } from "@/config/paths";
 import { useDesigns } from "@/features/designs/api/get-designs";
 import { useUpdateDesign } from "@/features/designs/api/update-design";
-import type { Design } from "@/features/designs/api/types";
+import { DEFAULT_STRESS_CLASS, type DesignView as Design } from "@shared/contracts";
 import { formatDateTime } from "@/utils/format";
 
 function pct(v: number): string {
@@ -37,7 +37,7 @@ export function DesignsTable({ archived, canArchive }: { archived: boolean; canA
           <TableRow key={d.id}>
             <TableCell>
               <TextLink to={paths.app.design.getHref(d.id)}>{d.name}</TextLink>
-              {d.stress !== "small-signal" && <Badge tone="fault" className="ml-2">{d.stress}</Badge>}
+              {d.stress !== DEFAULT_STRESS_CLASS && <Badge tone="fault" className="ml-2">{d.stress}</Badge>}
               {d.description && <p className="mt-0.5 max-w-md truncate text-xs text-ink-300">{d.description}</p>}
             </TableCell>
             <TableCell className="font-mono">

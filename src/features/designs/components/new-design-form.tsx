@@ -8,7 +8,7 @@ import { TextField } from "@/components/ui/text-field";
 import { paths } from "@/config/paths";
 import { splitApiError } from "@/lib/form";
 import { useCreateDesign } from "@/features/designs/api/create-design";
-import { STRESS_CLASSES, STRESS_LABELS, type StressClass } from "@/features/designs/api/types";
+import { DEFAULT_STRESS_CLASS, STRESS_CLASSES, STRESS_LABELS, type StressClass } from "@shared/contracts";
 import { FileSource } from "@/features/designs/components/file-source";
 import { NominalPlot } from "@/features/designs/components/nominal-plot";
 import { PrototypeForm } from "@/features/designs/components/prototype-form";
@@ -31,7 +31,7 @@ export function NewDesignForm() {
   const [fileNetlist, setFileNetlist] = useState<Netlist | null>(null);
   const [name, setName] = useState("");
   const [description, setDescription] = useState("");
-  const [stress, setStress] = useState<StressClass>("small-signal");
+  const [stress, setStress] = useState<StressClass>(DEFAULT_STRESS_CLASS);
   const [nameError, setNameError] = useState<string | undefined>();
   const synthesized = useMemo(() => synthesizeFromText(proto), [proto]);
   const netlist = source === "prototype" ? (synthesized.ok ? synthesized.netlist : null) : source === "blank" ? blankNetlist() : fileNetlist;

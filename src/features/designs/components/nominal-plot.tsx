@@ -5,7 +5,7 @@ import { CHART_COLORS, ResponseChart, type ChartMaskRect, type ChartSeries } fro
 import { Alert } from "@/components/ui/alert";
 import { useDebounced } from "@/features/designs/hooks/use-debounced";
 import { computeNominal, type NominalResponse } from "@/features/designs/lib/nominal-response";
-import type { Measured } from "@/features/designs/api/types";
+import type { Measured } from "@shared/contracts";
 
 /** A limit rule as drawn (same shape as the limit sets' rules). */
 export type MaskRule = { metric: string; from: number; to: number; min?: number; max?: number; label?: string };

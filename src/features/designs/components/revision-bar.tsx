@@ -1,10 +1,9 @@
 import { useNavigate } from "react-router-dom";
 import { Badge } from "@/components/ui/badge";
 import { paths } from "@/config/paths";
-import type { RevisionSummary } from "@/features/designs/api/types";
+import { REVIEW_STATE_TONE, type RevisionSummary } from "@shared/contracts";
 import { formatDateTime } from "@/utils/format";
 
-const REVIEW_TONE = { draft: "muted", "in-review": "signal", approved: "pass", "changes-requested": "fault" } as const;
 
 /** Which revision is open, its review state and whether a run or its review has locked it. */
 export function RevisionBar({ designId, revisions, current }: { designId: string; revisions: RevisionSummary[]; current: RevisionSummary }) {
@@ -26,7 +25,7 @@ export function RevisionBar({ designId, revisions, current }: { designId: string
           ))}
         </select>
       </label>
-      <Badge tone={REVIEW_TONE[current.reviewState]}>{current.reviewState}</Badge>
+      <Badge tone={REVIEW_STATE_TONE[current.reviewState]}>{current.reviewState}</Badge>
       {current.locked && <Badge tone="signal">{current.reviewState === "draft" ? "locked by a run" : "frozen by its review"}</Badge>}
       <span className="text-xs text-ink-300">
         by {current.createdBy.name}, {formatDateTime(current.createdAt)}

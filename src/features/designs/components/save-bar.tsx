@@ -5,7 +5,7 @@ import { Button } from "@/components/ui/button";
 import { paths } from "@/config/paths";
 import { ApiError } from "@/lib/api-client";
 import { useSaveRevision } from "@/features/designs/api/save-revision";
-import type { Revision } from "@/features/designs/api/types";
+import type { Revision } from "@shared/contracts";
 import type { PartsEditor } from "@/features/designs/hooks/use-parts-editor";
 
 /**

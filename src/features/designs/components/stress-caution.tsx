@@ -1,5 +1,5 @@
 import { Alert } from "@/components/ui/alert";
-import type { StressClass } from "@/features/designs/api/types";
+import type { StressClass } from "@shared/contracts";
 
 const TEXT: Partial<Record<StressClass, { title: string; body: string }>> = {
   mains: {

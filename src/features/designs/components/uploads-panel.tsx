@@ -2,7 +2,7 @@ import { useState } from "react";
 import { useNavigate } from "react-router-dom";
 import { Button } from "@/components/ui/button";
 import { paths } from "@/config/paths";
-import type { MeasuredSummary } from "@/features/designs/api/types";
+import type { MeasuredSummary } from "@shared/contracts";
 import { useDeleteMeasured, useUploadMeasured, useUploadRevision } from "@/features/designs/api/upload-files";
 import { FileUpload } from "@/features/designs/components/file-upload";
 

@@ -1,6 +1,7 @@
 import { queryOptions, useSuspenseQuery } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
-import type { Grade } from "@/features/grades/api/types";
+import { gradeKeys } from "@/features/grades/api/keys";
+import type { Grade } from "@shared/contracts";
 
 export async function getGrades(): Promise<Grade[]> {
   const { grades } = await api.get<{ grades: Grade[] }>("/grades");
@@ -8,7 +9,7 @@ export async function getGrades(): Promise<Grade[]> {
 }
 
 export function getGradesQueryOptions() {
-  return queryOptions({ queryKey: ["grades"] as const, queryFn: getGrades });
+  return queryOptions({ queryKey: gradeKeys.all, queryFn: getGrades });
 }
 
 /** The team's grade catalogue, sorted by kind then cost. */

@@ -5,7 +5,8 @@ import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
 import { TextField } from "@/components/ui/text-field";
 import { useSaveGrade } from "@/features/grades/api/save-grade";
-import type { Grade, GradeInput } from "@/features/grades/api/types";
+import type { Grade } from "@shared/contracts";
+import type { GradeBodyInput as GradeInput } from "@shared/schemas/design";
 
 type Errors = Partial<Record<"code" | "label" | "tolerance" | "costEach", string>>;
 const select = "h-10 rounded-md border border-ink-600 bg-ink-950 px-3 text-sm text-paper-50";

@@ -3,7 +3,7 @@ import { Button } from "@/components/ui/button";
 import { Table, TableBody, TableCaption, TableCell, TableHead, TableHeaderCell, TableRow } from "@/components/ui/table";
 import { useDeleteGrade } from "@/features/grades/api/save-grade";
 import { useGrades } from "@/features/grades/api/get-grades";
-import type { Grade } from "@/features/grades/api/types";
+import type { Grade } from "@shared/contracts";
 
 const UNIT = { R: "Ω", L: "H", C: "F" } as const;
 

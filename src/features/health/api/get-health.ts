@@ -1,12 +1,13 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
+import type { DispatchHealth, Health } from "@shared/contracts";
 import { api, ApiError } from "@/lib/api-client";
 
-/** Where runs are computed: the server's own threads, or worker processes through Redis (distributed mode). */
-export type DispatchHealth =
-  | { mode: "embedded"; threads: number }
-  | { mode: "distributed"; redis: "up" | "down"; workers: number | null; waitingChunks: number | null; activeChunks: number | null };
+export type { DispatchHealth, Health };
 
-export type Health = { status: "ok" | "degraded"; database: "up" | "down"; dispatch?: DispatchHealth };
+/** Query keys of the server's health (the health feature owns it). */
+export const healthKeys = {
+  all: ["health"] as const,
+};
 
 /** The server answers 503 with the same body when degraded (database or Redis down): that is a state, not an error. */
 export async function getHealth(): Promise<Health> {
@@ -23,7 +24,7 @@ export async function getHealth(): Promise<Health> {
 
 export function getHealthQueryOptions() {
   return queryOptions({
-    queryKey: ["health"] as const,
+    queryKey: healthKeys.all,
     queryFn: getHealth,
     refetchInterval: 60_000,
     staleTime: 30_000,

@@ -1,6 +1,10 @@
 import { keepPreviousData, queryOptions, useQuery } from "@tanstack/react-query";
+import type { RunPage } from "@shared/contracts";
+import type { HISTORY_SORTS } from "@shared/schemas/review";
 import { api } from "@/lib/api-client";
-import type { RunSummary } from "@/features/runs/api/types";
+import { runKeys } from "@/features/runs";
+
+export type { RunPage };
 
 /** Filters, sort and page of GET /api/runs; every field is the query parameter of the same name. */
 export type RunQuery = {
@@ -12,15 +16,13 @@ export type RunQuery = {
   to?: string;
   minYield?: string;
   maxYield?: string;
-  sort?: "queuedAt" | "finishedAt" | "yield" | "state" | "design";
+  sort?: (typeof HISTORY_SORTS)[number];
   dir?: "asc" | "desc";
   page?: string;
   pageSize?: string;
 };
 
 export const RUN_QUERY_KEYS = ["designId", "revisionId", "launchedBy", "state", "from", "to", "minYield", "maxYield", "sort", "dir", "page", "pageSize"] as const;
-
-export type RunPage = { runs: RunSummary[]; total: number; page: number; pageSize: number };
 
 /** The query string for a RunQuery, empty fields left out, in a stable order (it is also the cache key). */
 export function runQueryString(query: RunQuery): string {
@@ -35,7 +37,7 @@ export function runQueryString(query: RunQuery): string {
 export function getRunsQueryOptions(query: RunQuery) {
   const qs = runQueryString(query);
   return queryOptions({
-    queryKey: ["runs", "list", qs] as const,
+    queryKey: runKeys.list(qs),
     queryFn: () => api.get<RunPage>(`/runs${qs ? `?${qs}` : ""}`),
     placeholderData: keepPreviousData,
     // Unfinished runs in view move on by themselves: refresh the page every 3 s while any is queued or running.

@@ -1,6 +1,6 @@
 import type { RunQuery } from "@/features/history/api/get-runs";
-import type { DesignListItem } from "@/features/runs/api/get-launch-data";
-import { RUN_STATES } from "@/features/runs/api/types";
+import type { DesignView as DesignListItem } from "@shared/contracts";
+import { RUN_STATES } from "@shared/contracts";
 
 export type RunFiltersProps = { query: RunQuery; designs: DesignListItem[]; userId: string; onChange: (patch: Partial<RunQuery>) => void };
 

@@ -7,7 +7,7 @@ import { RUN_QUERY_KEYS, useRuns, type RunQuery } from "@/features/history/api/g
 import { Pager } from "@/features/history/components/pager";
 import { RunFilters } from "@/features/history/components/run-filters";
 import { RunsTable } from "@/features/history/components/runs-table";
-import { useDesigns } from "@/features/runs/api/get-launch-data";
+import { useDesigns } from "@/features/designs";
 
 /** The history: filters and sorting live in the address, so a filtered view can be shared as a link. */
 export function RunHistory({ userId }: { userId: string }) {

@@ -1,5 +1,5 @@
 import { Badge } from "@/components/ui/badge";
-import type { RunState } from "@/features/runs/api/types";
+import type { RunState } from "@shared/contracts";
 
 const tone = { queued: "muted", running: "signal", done: "pass", failed: "fault", cancelled: "neutral" } as const;
 

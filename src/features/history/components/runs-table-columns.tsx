@@ -3,8 +3,8 @@ import { Link } from "react-router-dom";
 import { paths } from "@/config/paths";
 import type { RunQuery } from "@/features/history/api/get-runs";
 import { RunStateBadge } from "@/features/history/components/run-state-badge";
-import type { RunSummary } from "@/features/runs/api/types";
-import { count, interval, percent } from "@/features/runs/utils/format";
+import type { RunSummary } from "@shared/contracts";
+import { count, interval, percent } from "@/features/runs";
 import { formatDateTime } from "@/utils/format";
 
 export type SortKey = NonNullable<RunQuery["sort"]>;

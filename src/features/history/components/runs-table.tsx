@@ -2,7 +2,7 @@ import { flexRender, getCoreRowModel, useReactTable, type PaginationState, type 
 import { useMemo } from "react";
 import { Table, TableBody, TableCaption, TableCell, TableHead, TableHeaderCell, TableRow } from "@/components/ui/table";
 import { runsTableColumns, type RunColumnMeta, type SortKey } from "@/features/history/components/runs-table-columns";
-import type { RunSummary } from "@/features/runs/api/types";
+import type { RunSummary } from "@shared/contracts";
 
 export type RunsTableProps = {
   runs: RunSummary[];

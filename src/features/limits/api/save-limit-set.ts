@@ -1,15 +1,17 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
-import { api } from "@/lib/api-client";
-// TODO(lead): use api.put once src/lib/api-client.ts has it.
-import { getLimitSetsQueryOptions } from "@/features/limits/api/get-limit-sets";
-import type { LimitSet, LimitSetInput } from "@/features/limits/api/types";
+import { limitSetBodySchema } from "@shared/schemas/design";
+import { api, checkBody } from "@/lib/api-client";
+import { designKeys } from "@/features/designs";
+import { limitSetKeys } from "@/features/limits/api/get-limit-sets";
+import type { LimitSet } from "@shared/contracts";
+import type { LimitSetBodyInput as LimitSetInput } from "@shared/schemas/design";
 
 export type SaveLimitSetInput = { designId: string; id: string | null; data: LimitSetInput };
 
 export async function saveLimitSet({ designId, id, data }: SaveLimitSetInput): Promise<LimitSet> {
   const { limitSet } = id
-    ? await api.put<{ limitSet: LimitSet }>(`/limit-sets/${encodeURIComponent(id)}`, data)
-    : await api.post<{ limitSet: LimitSet }>(`/designs/${encodeURIComponent(designId)}/limit-sets`, data);
+    ? await api.put<{ limitSet: LimitSet }>(`/limit-sets/${encodeURIComponent(id)}`, checkBody(limitSetBodySchema, data))
+    : await api.post<{ limitSet: LimitSet }>(`/designs/${encodeURIComponent(designId)}/limit-sets`, checkBody(limitSetBodySchema, data));
   return limitSet;
 }
 
@@ -19,8 +21,8 @@ export function useSaveLimitSet() {
   return useMutation({
     mutationFn: saveLimitSet,
     onSuccess: (_s, input) => {
-      void queryClient.invalidateQueries({ queryKey: getLimitSetsQueryOptions(input.designId).queryKey });
-      void queryClient.invalidateQueries({ queryKey: ["designs", "detail", input.designId] });
+      void queryClient.invalidateQueries({ queryKey: limitSetKeys.list(input.designId) });
+      void queryClient.invalidateQueries({ queryKey: designKeys.detail(input.designId) });
     },
   });
 }
@@ -30,6 +32,6 @@ export function useDeleteLimitSet(designId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (id: string) => api.delete(`/limit-sets/${encodeURIComponent(id)}`),
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: getLimitSetsQueryOptions(designId).queryKey }),
+    onSuccess: () => Promise.all([queryClient.invalidateQueries({ queryKey: limitSetKeys.list(designId) }), queryClient.invalidateQueries({ queryKey: designKeys.detail(designId) })]),
   });
 }

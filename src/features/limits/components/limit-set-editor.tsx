@@ -6,7 +6,7 @@ import { Table, TableBody, TableCaption, TableHead, TableHeaderCell, TableRow } 
 import { TextField } from "@/components/ui/text-field";
 import { ApiError } from "@/lib/api-client";
 import { useSaveLimitSet } from "@/features/limits/api/save-limit-set";
-import type { LimitSet } from "@/features/limits/api/types";
+import type { LimitSet } from "@shared/contracts";
 import { apiRuleErrors, checkRule, newRuleRow, RULE_FIELDS, RULE_LABELS, rowFromRule, type RuleRow } from "@/features/limits/lib/rule-rows";
 import { RuleRowView } from "@/features/limits/components/rule-row";
 

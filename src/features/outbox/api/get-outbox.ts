@@ -1,14 +1,12 @@
 import { queryOptions, useSuspenseQuery } from "@tanstack/react-query";
+import type { OutboxMessage } from "@shared/contracts";
 import { api } from "@/lib/api-client";
 
-/** A mail the local SMTP stand-in received and stored. */
-export type OutboxMessage = {
-  id: string;
-  from: string;
-  to: string[];
-  subject: string;
-  text: string;
-  receivedAt: string;
+export type { OutboxMessage };
+
+/** Query keys of the stored mail (the outbox feature owns them). */
+export const outboxKeys = {
+  all: ["outbox"] as const,
 };
 
 /** Stored mail, newest first. */
@@ -19,7 +17,7 @@ export async function getOutbox(): Promise<OutboxMessage[]> {
 
 export function getOutboxQueryOptions() {
   return queryOptions({
-    queryKey: ["outbox"] as const,
+    queryKey: outboxKeys.all,
     queryFn: getOutbox,
     staleTime: 5_000,
     refetchInterval: 10_000,

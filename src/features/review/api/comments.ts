@@ -1,13 +1,19 @@
 import { queryOptions, useMutation, useQueryClient, useSuspenseQuery } from "@tanstack/react-query";
-import { z } from "zod";
-import { api } from "@/lib/api-client";
-import type { Comment } from "@/features/review/api/types";
+import { commentBodySchema } from "@shared/schemas/review";
+import { api, checkBody } from "@/lib/api-client";
+import type { Comment } from "@shared/contracts";
 
-export const commentSchema = z.object({ body: z.string().trim().min(1, "Write something first.").max(4000, "At most 4000 characters.") });
+export { commentBodySchema as commentSchema } from "@shared/schemas/review";
+
+/** Query keys of run comments (the review feature owns them). */
+export const commentKeys = {
+  all: ["comments"] as const,
+  list: (runId: string) => [...commentKeys.all, runId] as const,
+};
 
 export function getCommentsQueryOptions(runId: string) {
   return queryOptions({
-    queryKey: ["runs", "comments", runId] as const,
+    queryKey: commentKeys.list(runId),
     queryFn: async () => (await api.get<{ comments: Comment[] }>(`/runs/${encodeURIComponent(runId)}/comments`)).comments,
   });
 }
@@ -18,7 +24,7 @@ export const useComments = (runId: string) => useSuspenseQuery(getCommentsQueryO
 export function useAddComment(runId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: async (body: string) => (await api.post<{ comment: Comment }>(`/runs/${encodeURIComponent(runId)}/comments`, { body })).comment,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: getCommentsQueryOptions(runId).queryKey }),
+    mutationFn: async (body: string) => (await api.post<{ comment: Comment }>(`/runs/${encodeURIComponent(runId)}/comments`, checkBody(commentBodySchema, { body }))).comment,
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: commentKeys.list(runId) }),
   });
 }

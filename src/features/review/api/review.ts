@@ -1,11 +1,18 @@
 import { queryOptions, useMutation, useQueryClient, useSuspenseQuery } from "@tanstack/react-query";
-import { api } from "@/lib/api-client";
-import type { ReviewAction, ReviewEvent, ReviewState } from "@/features/review/api/types";
+import type { ReviewResponse } from "@shared/contracts";
+import { reviewActionSchema, type ReviewActionInput } from "@shared/schemas/review";
+import { api, checkBody } from "@/lib/api-client";
+import { designKeys, revisionKeys } from "@/features/designs";
+
+/** A revision's review hangs off the revision's own key: invalidating the revision refreshes its review too. */
+export const reviewKeys = {
+  detail: (revisionId: string) => [...revisionKeys.detail(revisionId), "review"] as const,
+};
 
 export function getReviewQueryOptions(revisionId: string) {
   return queryOptions({
-    queryKey: ["revisions", "review", revisionId] as const,
-    queryFn: () => api.get<{ reviewState: ReviewState; events: ReviewEvent[] }>(`/revisions/${encodeURIComponent(revisionId)}/review`),
+    queryKey: reviewKeys.detail(revisionId),
+    queryFn: () => api.get<ReviewResponse>(`/revisions/${encodeURIComponent(revisionId)}/review`),
   });
 }
 
@@ -15,13 +22,12 @@ export const useReview = (revisionId: string) => useSuspenseQuery(getReviewQuery
 export function useReviewAction(revisionId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: { action: ReviewAction; comment?: string }) =>
-      api.post<{ reviewState: ReviewState }>(`/revisions/${encodeURIComponent(revisionId)}/review`, input),
+    mutationFn: (input: ReviewActionInput) => api.post<ReviewResponse>(`/revisions/${encodeURIComponent(revisionId)}/review`, checkBody(reviewActionSchema, input)),
     onSuccess: () =>
       Promise.all([
-        queryClient.invalidateQueries({ queryKey: getReviewQueryOptions(revisionId).queryKey }),
-        queryClient.invalidateQueries({ queryKey: ["revisions", "detail", revisionId] }),
-        queryClient.invalidateQueries({ queryKey: ["designs"] }),
+        // the revision (now frozen) and its review, then its design's revision list and the designs table
+        queryClient.invalidateQueries({ queryKey: revisionKeys.detail(revisionId) }),
+        queryClient.invalidateQueries({ queryKey: designKeys.all }),
       ]),
   });
 }

@@ -1,9 +1,8 @@
 import { useState } from "react";
-import { hasAnyRole, type Role } from "@shared/roles";
+import { mayTakeReviewAction, type ReviewAction, type Role } from "@shared/contracts";
 import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
 import { useReview, useReviewAction } from "@/features/review/api/review";
-import type { ReviewAction } from "@/features/review/api/types";
 import { ReviewStateBadge } from "@/features/review/components/review-state-badge";
 import { formatDateTime } from "@/utils/format";
 
@@ -11,19 +10,19 @@ import { formatDateTime } from "@/utils/format";
  * The revision's review: its state and trail, and the moves the signed-in person may make —
  * a designer asks for review (draft or changes requested), a reviewer approves or sends it back (in review).
  */
-export function ReviewPanel({ revisionId, revisionNumber, roles }: { revisionId: string; revisionNumber: number; roles: readonly Role[] }) {
+export function ReviewPanel({ revisionId, revisionNumber, roles }: { revisionId: string; revisionNumber: number | null; roles: readonly Role[] }) {
   const review = useReview(revisionId);
   const act = useReviewAction(revisionId);
   const [comment, setComment] = useState("");
   const state = review.data.reviewState;
-  const canRequest = hasAnyRole(roles, ["designer"]) && (state === "draft" || state === "changes-requested");
-  const canDecide = hasAnyRole(roles, ["reviewer"]) && state === "in-review";
+  const canRequest = mayTakeReviewAction(roles, "request", state);
+  const canDecide = mayTakeReviewAction(roles, "approve", state);
   const run = (action: ReviewAction) => act.mutate({ action, comment: comment.trim() || undefined }, { onSuccess: () => setComment("") });
 
   return (
     <div className="flex flex-col gap-4">
       <p className="flex items-center gap-2 text-sm text-paper-200">
-        Revision r{revisionNumber} is <ReviewStateBadge state={state} />
+        Revision {revisionNumber === null ? "" : `r${revisionNumber} `}is <ReviewStateBadge state={state} />
       </p>
       {review.data.events.length > 0 && (
         <ol className="flex flex-col gap-1.5 border-l border-ink-700 pl-4 text-sm" aria-label="Review trail">

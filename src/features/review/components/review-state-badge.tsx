@@ -1,10 +1,7 @@
 import { Badge } from "@/components/ui/badge";
-import type { ReviewState } from "@/features/review/api/types";
-
-const tone = { draft: "muted", "in-review": "signal", approved: "pass", "changes-requested": "fault" } as const;
-const words: Record<ReviewState, string> = { draft: "draft", "in-review": "in review", approved: "approved", "changes-requested": "changes requested" };
+import { REVIEW_STATE_TONE, REVIEW_STATE_WORDS, type ReviewState } from "@shared/contracts";
 
 /** The review state of a revision as a small tag. */
 export function ReviewStateBadge({ state }: { state: ReviewState }) {
-  return <Badge tone={tone[state] ?? "neutral"}>{words[state] ?? state}</Badge>;
+  return <Badge tone={REVIEW_STATE_TONE[state] ?? "neutral"}>{REVIEW_STATE_WORDS[state] ?? state}</Badge>;
 }

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
-import { getRunQueryOptions } from "@/features/runs/api/get-run";
-import type { RunSummary } from "@/features/runs/api/types";
+import { runKeys } from "@/features/runs/api/keys";
+import type { RunSummary } from "@shared/contracts";
 
 export async function cancelRun(runId: string): Promise<RunSummary> {
   const { run } = await api.post<{ run: RunSummary }>(`/runs/${encodeURIComponent(runId)}/cancel`);
@@ -13,6 +13,6 @@ export function useCancelRun(runId: string) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: () => cancelRun(runId),
-    onSettled: () => queryClient.invalidateQueries({ queryKey: getRunQueryOptions(runId).queryKey }),
+    onSettled: () => Promise.all([queryClient.invalidateQueries({ queryKey: runKeys.detail(runId) }), queryClient.invalidateQueries({ queryKey: runKeys.lists() })]),
   });
 }

@@ -1,6 +1,7 @@
 import { queryOptions, useSuspenseQuery } from "@tanstack/react-query";
+import { isFinishedRunState, type RunResponse } from "@shared/contracts";
 import { api } from "@/lib/api-client";
-import { isFinished, type RunResponse } from "@/features/runs/api/types";
+import { runKeys } from "@/features/runs/api/keys";
 
 export async function getRun(runId: string): Promise<RunResponse> {
   return api.get<RunResponse>(`/runs/${encodeURIComponent(runId)}`);
@@ -9,13 +10,13 @@ export async function getRun(runId: string): Promise<RunResponse> {
 /** The stored run with its result; polled every 1.5 s while it is queued or running (the SSE fallback). */
 export function getRunQueryOptions(runId: string) {
   return queryOptions({
-    queryKey: ["runs", "detail", runId] as const,
+    queryKey: runKeys.detail(runId),
     queryFn: () => getRun(runId),
     refetchInterval: (query) => {
       const state = query.state.data?.run.state;
-      return state && !isFinished(state) ? 1500 : false;
+      return state && !isFinishedRunState(state) ? 1500 : false;
     },
-    staleTime: (query) => (query.state.data && isFinished(query.state.data.run.state) ? Infinity : 0),
+    staleTime: (query) => (query.state.data && isFinishedRunState(query.state.data.run.state) ? Infinity : 0),
   });
 }
 

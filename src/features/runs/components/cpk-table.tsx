@@ -1,6 +1,6 @@
 import { Card } from "@/components/ui/card";
 import { Table, TableBody, TableCaption, TableCell, TableHead, TableHeaderCell, TableRow } from "@/components/ui/table";
-import type { RunResultJson } from "@/features/runs/api/types";
+import type { RunResultView as RunResultJson } from "@shared/contracts";
 import { count, fixed, ruleName } from "@/features/runs/utils/format";
 import { cn } from "@/utils/cn";
 

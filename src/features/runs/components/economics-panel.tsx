@@ -1,5 +1,5 @@
 import { Card } from "@/components/ui/card";
-import type { Economics } from "@/features/runs/api/types";
+import type { RunEconomics as Economics } from "@shared/contracts";
 import { count, money } from "@/features/runs/utils/format";
 
 /**

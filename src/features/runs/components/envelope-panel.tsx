@@ -1,7 +1,8 @@
 import { useState } from "react";
 import { Card } from "@/components/ui/card";
-import { useMeasured } from "@/features/runs/api/get-launch-data";
-import type { LimitRuleJson, RunResultJson } from "@/features/runs/api/types";
+import { useMeasured } from "@/features/designs";
+import type { LimitRule as LimitRuleJson } from "@shared/engine/limits";
+import type { RunResultView as RunResultJson } from "@shared/contracts";
 import { CHART_COLORS, ResponseChart, type ChartSeries } from "@/components/charts/response-chart";
 import { envelopeOf } from "@/features/runs/utils/analysis";
 import { envelopeLayers, gaps, maskOf } from "@/features/runs/utils/chart-props";

@@ -1,6 +1,6 @@
 import { formatSi } from "@shared/units";
-import type { Grade } from "@/features/runs/api/get-launch-data";
-import type { NetlistPartJson } from "@/features/runs/api/types";
+import type { Grade } from "@shared/contracts";
+import type { Part as NetlistPartJson } from "@shared/engine/netlist";
 import { Table, TableBody, TableCaption, TableCell, TableHead, TableHeaderCell, TableRow } from "@/components/ui/table";
 import { money } from "@/features/runs/utils/format";
 

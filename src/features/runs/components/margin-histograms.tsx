@@ -1,5 +1,5 @@
 import { Card } from "@/components/ui/card";
-import type { RunResultJson } from "@/features/runs/api/types";
+import type { RunResultView as RunResultJson } from "@shared/contracts";
 import { histogramOption } from "@/features/runs/components/charts/bar-options";
 import { LazyChart } from "@/features/runs/components/charts/lazy-chart";
 import { count, fixed, ruleName } from "@/features/runs/utils/format";

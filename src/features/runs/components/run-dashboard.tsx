@@ -1,7 +1,7 @@
 import type { ReactNode } from "react";
 import { Card } from "@/components/ui/card";
 import type { MeasuredChoice } from "@/features/runs/components/envelope-panel";
-import type { Economics, RunDetail, RunResultJson } from "@/features/runs/api/types";
+import type { RunEconomics as Economics, RunDetail, RunResultView as RunResultJson } from "@shared/contracts";
 import { CpkTable } from "@/features/runs/components/cpk-table";
 import { EconomicsPanel } from "@/features/runs/components/economics-panel";
 import { EnvelopePanel } from "@/features/runs/components/envelope-panel";

@@ -1,6 +1,6 @@
 import { Link } from "react-router-dom";
 import { paths } from "@/config/paths";
-import type { RunDetail } from "@/features/runs/api/types";
+import type { RunDetail } from "@shared/contracts";
 import { count } from "@/features/runs/utils/format";
 import { formatDateTime } from "@/utils/format";
 

@@ -2,7 +2,7 @@ import { Alert } from "@/components/ui/alert";
 import { Badge } from "@/components/ui/badge";
 import { Button } from "@/components/ui/button";
 import { useCancelRun } from "@/features/runs/api/cancel-run";
-import type { RunSummary } from "@/features/runs/api/types";
+import type { RunSummary } from "@shared/contracts";
 import { useRunProgress } from "@/features/runs/hooks/use-run-progress";
 import { count, duration } from "@/features/runs/utils/format";
 

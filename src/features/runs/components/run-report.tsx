@@ -1,7 +1,7 @@
 import type { ReactNode } from "react";
 import { formatSi } from "@shared/units";
 import { Table, TableBody, TableCaption, TableCell, TableHead, TableHeaderCell, TableRow } from "@/components/ui/table";
-import type { Economics, RunDetail, RunResultJson } from "@/features/runs/api/types";
+import type { RunEconomics as Economics, RunDetail, RunResultView as RunResultJson } from "@shared/contracts";
 import { CpkTable } from "@/features/runs/components/cpk-table";
 import { EconomicsPanel } from "@/features/runs/components/economics-panel";
 import { ResponseChart } from "@/components/charts/response-chart";

@@ -1,5 +1,5 @@
 import { Alert } from "@/components/ui/alert";
-import type { Stress } from "@/features/runs/api/get-launch-data";
+import type { StressClass as Stress } from "@shared/contracts";
 
 /**
  * Lotwise estimates; it does not certify. The caution is always shown beside a result, and spelled out

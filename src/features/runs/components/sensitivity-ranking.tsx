@@ -1,5 +1,5 @@
 import { Card } from "@/components/ui/card";
-import type { RunResultJson } from "@/features/runs/api/types";
+import type { RunResultView as RunResultJson } from "@shared/contracts";
 import { mostFailingRule, sensitivityRanking } from "@/features/runs/utils/analysis";
 import { count, ruleName } from "@/features/runs/utils/format";
 

@@ -1,6 +1,6 @@
 import { useEffect } from "react";
 import { useQuery } from "@tanstack/react-query";
-import { getDesignQueryOptions, useDesigns } from "@/features/runs/api/get-launch-data";
+import { getDesignQueryOptions, useDesigns } from "@/features/designs";
 import { Select } from "@/features/runs/components/select";
 
 export type RunTarget = { designId: string; revisionId: string; limitSetId: string };

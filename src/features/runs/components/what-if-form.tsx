@@ -6,7 +6,7 @@ import { Card } from "@/components/ui/card";
 import { TextField } from "@/components/ui/text-field";
 import { paths } from "@/config/paths";
 import { useCreateRun } from "@/features/runs/api/create-run";
-import type { RunDetail } from "@/features/runs/api/types";
+import type { RunDetail } from "@shared/contracts";
 
 /** Rerun the same inputs and seed with one part's tolerance changed, labelled "what if C3 ±1 %". */
 export function WhatIfForm({ run }: { run: RunDetail }) {

@@ -1,4 +1,4 @@
-import type { RunResultJson } from "@/features/runs/api/types";
+import type { RunResultView as RunResultJson } from "@shared/contracts";
 import { count, interval, percent } from "@/features/runs/utils/format";
 import { cn } from "@/utils/cn";
 

@@ -1,7 +1,7 @@
 import { useEffect, useRef, useState } from "react";
 import { useQueryClient } from "@tanstack/react-query";
 import { getRunQueryOptions } from "@/features/runs/api/get-run";
-import { isFinished, type RunProgress, type RunSummary } from "@/features/runs/api/types";
+import { isFinishedRunState as isFinished, type RunProgress, type RunSummary } from "@shared/contracts";
 
 /**
  * Live progress of a run: server-sent events from `/api/runs/:id/events` while it is queued or running.

@@ -1,4 +1,4 @@
-import type { RunResultJson } from "@/features/runs/api/types";
+import type { RunResultView as RunResultJson } from "@shared/contracts";
 
 /**
  * The rule that fails most often (ties: the lower Cpk, then the lower index); −1 when there are no rules.

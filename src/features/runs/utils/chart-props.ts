@@ -1,5 +1,7 @@
 import { CHART_COLORS, type ChartBand, type ChartMaskRect, type ChartSeries } from "@/components/charts/response-chart";
-import type { EnvelopeSeriesJson, LimitRuleJson, RunResultJson } from "@/features/runs/api/types";
+import type { EnvelopeSeries as EnvelopeSeriesJson } from "@shared/engine/result";
+import type { LimitRule as LimitRuleJson } from "@shared/engine/limits";
+import type { RunResultView as RunResultJson } from "@shared/contracts";
 
 /** Null (a gap in stored JSON) as NaN, which the shared chart draws as a gap. */
 export const gaps = (values: readonly (number | null)[]): number[] => values.map((v) => (v === null ? NaN : v));

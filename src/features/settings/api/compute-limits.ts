@@ -1,13 +1,19 @@
 import { queryOptions, useMutation, useQueryClient, useSuspenseQuery } from "@tanstack/react-query";
-import type { ComputeLimits } from "@shared/schemas/settings";
-import { api } from "@/lib/api-client";
+import type { ComputeLimitsResponse } from "@shared/contracts";
+import { computeLimitsSchema, type ComputeLimits } from "@shared/schemas/settings";
+import { api, checkBody } from "@/lib/api-client";
 
 export { computeLimitsSchema } from "@shared/schemas/settings";
 
-type LimitsResponse = { limits: ComputeLimits; defaults: ComputeLimits };
+type LimitsResponse = ComputeLimitsResponse;
+
+/** Query keys of the admin's settings (the settings feature owns them). */
+export const settingsKeys = {
+  computeLimits: ["settings", "compute-limits"] as const,
+};
 
 export function getComputeLimitsQueryOptions() {
-  return queryOptions({ queryKey: ["settings", "compute-limits"] as const, queryFn: () => api.get<LimitsResponse>("/settings/compute-limits") });
+  return queryOptions({ queryKey: settingsKeys.computeLimits, queryFn: () => api.get<LimitsResponse>("/settings/compute-limits") });
 }
 
 export const useComputeLimits = () => useSuspenseQuery(getComputeLimitsQueryOptions());
@@ -16,7 +22,7 @@ export const useComputeLimits = () => useSuspenseQuery(getComputeLimitsQueryOpti
 export function useSaveComputeLimits() {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (limits: ComputeLimits) => api.put<LimitsResponse>("/settings/compute-limits", limits),
-    onSuccess: (data) => queryClient.setQueryData(getComputeLimitsQueryOptions().queryKey, data),
+    mutationFn: (limits: ComputeLimits) => api.put<LimitsResponse>("/settings/compute-limits", checkBody(computeLimitsSchema, limits)),
+    onSuccess: (data) => queryClient.setQueryData(settingsKeys.computeLimits, data),
   });
 }

@@ -1,27 +1,31 @@
-import { queryOptions, useMutation, useSuspenseQuery } from "@tanstack/react-query";
-import { api } from "@/lib/api-client";
-import type { RunState, RunSummary } from "@/features/runs/api/types";
+import { queryOptions, useMutation, useQueryClient, useSuspenseQuery } from "@tanstack/react-query";
+import type { CreatedSweepResponse, SweepResponse, SweepRow } from "@shared/contracts";
+import { createSweepSchema, type CreateSweepInput } from "@shared/schemas/review";
+import { api, checkBody } from "@/lib/api-client";
+import { invalidateAfterLaunch } from "@/features/runs";
 
-export type Assignment = { label: string; gradeOverrides: Record<string, string> };
-export type CreateSweepInput = { revisionId: string; limitSetId: string; trials: number; seed?: number; targetYield: number; name?: string; assignments: Assignment[] };
-export type SweepRow = { runId: string; label: string; state: RunState; yield: number | null; wilson95: [number, number] | null; bomCost: number | null; costPerGoodUnit: number | null; meetsTarget: boolean };
-export type SweepResponse = {
-  sweep: { id: string; name: string; designId: string; revisionId: string; targetYield: number; createdAt: string };
-  rows: SweepRow[];
-  cheapestMeetingTarget: string | null;
+export type { CreateSweepInput, SweepResponse, SweepRow };
+export type Assignment = CreateSweepInput["assignments"][number];
+
+/** Query keys of grade sweeps (the sweeps feature owns them; their runs are the runs feature's). */
+export const sweepKeys = {
+  all: ["sweeps"] as const,
+  detail: (sweepId: string) => [...sweepKeys.all, sweepId] as const,
 };
 
-/** Launches one run per grade assignment, all with the same seed (analyst). */
+/** Launches one run per grade assignment, all with the same seed (analyst); like any launch it locks the revision. */
 export function useCreateSweep() {
+  const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: CreateSweepInput) => api.post<{ sweep: { id: string; name: string; targetYield: number }; runs: RunSummary[] }>("/sweeps", input),
+    mutationFn: (input: CreateSweepInput) => api.post<CreatedSweepResponse>("/sweeps", checkBody(createSweepSchema, input)),
+    onSuccess: (created) => invalidateAfterLaunch(queryClient, created.runs),
   });
 }
 
 /** The sweep's table; polled every 2 s until every run has finished. */
 export function getSweepQueryOptions(sweepId: string) {
   return queryOptions({
-    queryKey: ["sweeps", sweepId] as const,
+    queryKey: sweepKeys.detail(sweepId),
     queryFn: () => api.get<SweepResponse>(`/sweeps/${encodeURIComponent(sweepId)}`),
     refetchInterval: (q) => (q.state.data?.rows.some((r) => r.state === "queued" || r.state === "running") ? 2000 : false),
   });

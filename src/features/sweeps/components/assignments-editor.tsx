@@ -1,7 +1,7 @@
 import { Button } from "@/components/ui/button";
 import { Table, TableBody, TableCaption, TableCell, TableHead, TableHeaderCell, TableRow } from "@/components/ui/table";
-import type { Grade } from "@/features/runs/api/get-launch-data";
-import type { NetlistPartJson } from "@/features/runs/api/types";
+import type { Grade } from "@shared/contracts";
+import type { Part as NetlistPartJson } from "@shared/engine/netlist";
 import type { Assignment } from "@/features/sweeps/api/sweeps";
 
 export type AssignmentsEditorProps = { parts: NetlistPartJson[]; grades: Grade[]; value: Assignment[]; onChange: (next: Assignment[]) => void };

@@ -2,7 +2,7 @@ import { Link } from "react-router-dom";
 import { Badge } from "@/components/ui/badge";
 import { Table, TableBody, TableCaption, TableCell, TableHead, TableHeaderCell, TableRow } from "@/components/ui/table";
 import { paths } from "@/config/paths";
-import { interval, money, percent } from "@/features/runs/utils/format";
+import { interval, money, percent } from "@/features/runs";
 import type { SweepResponse } from "@/features/sweeps/api/sweeps";
 import { cn } from "@/utils/cn";
 

@@ -1,13 +1,14 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import type { CreateInvitationInput } from "@shared/schemas/team";
-import { api } from "@/lib/api-client";
-import { getInvitationsQueryOptions } from "@/features/team/api/get-invitations";
-import type { Invitation } from "@/features/team/api/types";
+import { createInvitationSchema } from "@shared/schemas/team";
+import { api, checkBody } from "@/lib/api-client";
+import { teamKeys } from "@/features/team/api/keys";
+import type { Invitation } from "@shared/contracts";
 
 export { createInvitationSchema } from "@shared/schemas/team";
 
 export async function createInvitation(input: CreateInvitationInput): Promise<Invitation> {
-  const { invitation } = await api.post<{ invitation: Invitation }>("/team/invitations", input);
+  const { invitation } = await api.post<{ invitation: Invitation }>("/team/invitations", checkBody(createInvitationSchema, input));
   return invitation;
 }
 
@@ -16,6 +17,6 @@ export function useCreateInvitation() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: createInvitation,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: getInvitationsQueryOptions().queryKey }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: teamKeys.invitations() }),
   });
 }

@@ -1,6 +1,7 @@
 import { queryOptions, useSuspenseQuery } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
-import type { Invitation } from "@/features/team/api/types";
+import { teamKeys } from "@/features/team/api/keys";
+import type { Invitation } from "@shared/contracts";
 
 export async function getInvitations(): Promise<Invitation[]> {
   const { invitations } = await api.get<{ invitations: Invitation[] }>("/team/invitations");
@@ -8,7 +9,7 @@ export async function getInvitations(): Promise<Invitation[]> {
 }
 
 export function getInvitationsQueryOptions() {
-  return queryOptions({ queryKey: ["team", "invitations"] as const, queryFn: getInvitations });
+  return queryOptions({ queryKey: teamKeys.invitations(), queryFn: getInvitations });
 }
 
 export function useInvitations() {

@@ -1,6 +1,7 @@
 import { queryOptions, useSuspenseQuery } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
-import type { Member } from "@/features/team/api/types";
+import { teamKeys } from "@/features/team/api/keys";
+import type { Member } from "@shared/contracts";
 
 export async function getMembers(): Promise<Member[]> {
   const { members } = await api.get<{ members: Member[] }>("/team/members");
@@ -8,7 +9,7 @@ export async function getMembers(): Promise<Member[]> {
 }
 
 export function getMembersQueryOptions() {
-  return queryOptions({ queryKey: ["team", "members"] as const, queryFn: getMembers });
+  return queryOptions({ queryKey: teamKeys.members(), queryFn: getMembers });
 }
 
 export function useMembers() {

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
-import { getInvitationsQueryOptions } from "@/features/team/api/get-invitations";
+import { teamKeys } from "@/features/team/api/keys";
 
 export async function revokeInvitation(id: string): Promise<void> {
   await api.delete(`/team/invitations/${encodeURIComponent(id)}`);
@@ -11,6 +11,6 @@ export function useRevokeInvitation() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: revokeInvitation,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: getInvitationsQueryOptions().queryKey }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: teamKeys.invitations() }),
   });
 }

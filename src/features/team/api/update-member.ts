@@ -1,13 +1,14 @@
 import { useMutation, useQueryClient } from "@tanstack/react-query";
 import type { UpdateMemberInput } from "@shared/schemas/team";
-import { api } from "@/lib/api-client";
-import { getMembersQueryOptions } from "@/features/team/api/get-members";
-import type { Member } from "@/features/team/api/types";
+import { updateMemberSchema } from "@shared/schemas/team";
+import { api, checkBody } from "@/lib/api-client";
+import { teamKeys } from "@/features/team/api/keys";
+import type { Member } from "@shared/contracts";
 
 export { updateMemberSchema } from "@shared/schemas/team";
 
 export async function updateMember({ id, data }: { id: string; data: UpdateMemberInput }): Promise<Member> {
-  const { member } = await api.patch<{ member: Member }>(`/team/members/${encodeURIComponent(id)}`, data);
+  const { member } = await api.patch<{ member: Member }>(`/team/members/${encodeURIComponent(id)}`, checkBody(updateMemberSchema, data));
   return member;
 }
 
@@ -16,6 +17,6 @@ export function useUpdateMember() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: updateMember,
-    onSuccess: () => queryClient.invalidateQueries({ queryKey: getMembersQueryOptions().queryKey }),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: teamKeys.members() }),
   });
 }

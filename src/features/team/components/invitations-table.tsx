@@ -13,7 +13,7 @@ import { splitApiError } from "@/lib/form";
 import { formatDateTime, isPast } from "@/utils/format";
 import { useInvitations } from "@/features/team/api/get-invitations";
 import { useRevokeInvitation } from "@/features/team/api/revoke-invitation";
-import type { Invitation } from "@/features/team/api/types";
+import type { Invitation } from "@shared/contracts";
 
 type State = "pending" | "accepted" | "revoked" | "expired";
 

@@ -7,7 +7,7 @@ import { phraseFieldError, splitApiError, validateWith } from "@/lib/form";
 import { cn } from "@/utils/cn";
 import { formatDate } from "@/utils/format";
 import { updateMemberSchema, useUpdateMember } from "@/features/team/api/update-member";
-import type { Member } from "@/features/team/api/types";
+import type { Member } from "@shared/contracts";
 
 const COLUMNS = 5;
 

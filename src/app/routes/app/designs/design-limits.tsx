@@ -2,7 +2,7 @@ import { useCallback, useState } from "react";
 import type { QueryClient } from "@tanstack/react-query";
 import { useNavigate, useParams, useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
 import type { LimitRule } from "@shared/engine/limits";
-import { hasAnyRole } from "@shared/roles";
+import { ACCESS, hasAnyRole } from "@shared/contracts";
 import { RegionBoundary } from "@/components/errors/region-boundary";
 import { PageHeader } from "@/components/layouts/page-header";
 import { Button } from "@/components/ui/button";
@@ -46,7 +46,7 @@ function LimitsPage({ designId }: { designId: string }) {
   const selectedId = search.get("set") ?? sets[0]?.id ?? "new";
   const selected = sets.find((s) => s.id === selectedId) ?? null;
   const newest = [...detail.revisions].sort((a, b) => b.number - a.number)[0];
-  const canEdit = hasAnyRole(user.roles, ["planner"]);
+  const canEdit = hasAnyRole(user.roles, ACCESS.editLimits);
   const go = (id: string) => navigate(paths.app.designLimits.getHref(designId, id), { replace: true });
 
   return (

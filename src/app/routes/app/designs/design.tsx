@@ -1,7 +1,7 @@
 import { useState } from "react";
 import type { QueryClient } from "@tanstack/react-query";
 import { useParams, useSearchParams, type LoaderFunctionArgs } from "react-router-dom";
-import { hasAnyRole } from "@shared/roles";
+import { ACCESS, hasAnyRole } from "@shared/contracts";
 import { RegionBoundary } from "@/components/errors/region-boundary";
 import { PageHeader } from "@/components/layouts/page-header";
 import { Alert } from "@/components/ui/alert";
@@ -41,7 +41,7 @@ function DesignPage({ designId }: { designId: string }) {
   const [editing, setEditing] = useState(false);
   const newest = [...detail.revisions].sort((a, b) => b.number - a.number)[0];
   const revisionId = search.get("revision") ?? newest?.id;
-  const isDesigner = hasAnyRole(user.roles, ["designer"]);
+  const isDesigner = hasAnyRole(user.roles, ACCESS.editDesigns);
   return (
     <>
       <title>{`${detail.design.name} · Lotwise`}</title>
@@ -104,8 +104,8 @@ function RevisionView({ designId, revisionId }: { designId: string; revisionId: 
         detail={detail}
         revision={revision}
         grades={grades.map((g) => ({ kind: g.kind, code: g.code, label: g.label }))}
-        canEdit={hasAnyRole(user.roles, ["designer"])}
-        canUploadMeasured={hasAnyRole(user.roles, ["designer", "analyst"])}
+        canEdit={hasAnyRole(user.roles, ACCESS.editDesigns)}
+        canUploadMeasured={hasAnyRole(user.roles, ACCESS.uploadMeasured)}
         rules={mask?.limits.rules}
       />
     </div>

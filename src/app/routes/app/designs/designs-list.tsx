@@ -1,7 +1,7 @@
 import { useState } from "react";
 import type { QueryClient } from "@tanstack/react-query";
 import { Link } from "react-router-dom";
-import { hasAnyRole } from "@shared/roles";
+import { ACCESS, hasAnyRole } from "@shared/contracts";
 import { RegionBoundary } from "@/components/errors/region-boundary";
 import { PageHeader } from "@/components/layouts/page-header";
 import { Card } from "@/components/ui/card";
@@ -19,7 +19,7 @@ export const clientLoader = (queryClient: QueryClient) => async () => {
 export default function DesignsRoute() {
   const user = useAppUser();
   const [archived, setArchived] = useState(false);
-  const isDesigner = hasAnyRole(user.roles, ["designer"]);
+  const isDesigner = hasAnyRole(user.roles, ACCESS.editDesigns);
   return (
     <>
       <title>Designs · Lotwise</title>

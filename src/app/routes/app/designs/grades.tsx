@@ -1,11 +1,11 @@
 import { useState } from "react";
 import type { QueryClient } from "@tanstack/react-query";
-import { hasAnyRole } from "@shared/roles";
+import { ACCESS, hasAnyRole } from "@shared/contracts";
 import { RegionBoundary } from "@/components/errors/region-boundary";
 import { PageHeader } from "@/components/layouts/page-header";
 import { Card } from "@/components/ui/card";
 import { getGradesQueryOptions } from "@/features/grades/api/get-grades";
-import type { Grade } from "@/features/grades/api/types";
+import type { Grade } from "@shared/contracts";
 import { GradeForm } from "@/features/grades/components/grade-form";
 import { GradesTable } from "@/features/grades/components/grades-table";
 import { useAppUser } from "@/app/routes/app/app-context";
@@ -17,7 +17,7 @@ export const clientLoader = (queryClient: QueryClient) => async () => {
 
 export default function GradesRoute() {
   const user = useAppUser();
-  const canEdit = hasAnyRole(user.roles, ["planner"]);
+  const canEdit = hasAnyRole(user.roles, ACCESS.editLimits);
   const [editing, setEditing] = useState<Grade | null>(null);
   const [formKey, setFormKey] = useState(0); // a new key empties the form after each save
   const done = () => {

@@ -1,4 +1,4 @@
-import { hasAnyRole } from "@shared/roles";
+import { ACCESS, hasAnyRole } from "@shared/contracts";
 import { ForbiddenNotice } from "@/components/errors/forbidden-notice";
 import { PageHeader } from "@/components/layouts/page-header";
 import { NewDesignForm } from "@/features/designs/components/new-design-form";
@@ -6,7 +6,7 @@ import { useAppUser } from "@/app/routes/app/app-context";
 
 export default function NewDesignRoute() {
   const user = useAppUser();
-  if (!hasAnyRole(user.roles, ["designer"])) return <ForbiddenNotice screen="New design" role="designer" />;
+  if (!hasAnyRole(user.roles, ACCESS.editDesigns)) return <ForbiddenNotice screen="New design" role="designer" />;
   return (
     <>
       <title>New design · Lotwise</title>

@@ -1,6 +1,6 @@
 import type { RouteObject } from "react-router-dom";
 import type { NavItem } from "@/components/layouts/app-layout";
-import type { User } from "@/features/auth/api/types";
+import type { AuthUserView as User } from "@shared/contracts";
 import type { RouteLoad } from "@/app/router";
 import { paths } from "@/config/paths";
 

@@ -1,14 +1,13 @@
 import type { QueryClient } from "@tanstack/react-query";
 import { Link } from "react-router-dom";
-import { hasAnyRole } from "@shared/roles";
+import { ACCESS, hasAnyRole } from "@shared/contracts";
 import { RegionBoundary } from "@/components/errors/region-boundary";
 import { PageHeader } from "@/components/layouts/page-header";
 import { Card } from "@/components/ui/card";
 import { paths } from "@/config/paths";
 import { RunHistory } from "@/features/history/components/run-history";
-import { getDesignsQueryOptions } from "@/features/runs/api/get-launch-data";
+import { getDesignsQueryOptions } from "@/features/designs";
 import { useAppUser } from "@/app/routes/app/app-context";
-import { LAUNCH_ROLES, SWEEP_ROLES } from "@/app/routes/app/runs/roles";
 
 export const clientLoader = (queryClient: QueryClient) => async () => {
   void queryClient.prefetchQuery(getDesignsQueryOptions());
@@ -28,12 +27,12 @@ export default function HistoryRoute() {
         lead="Every stored run of every design: filter, sort, open one, or tick a few to compare them."
         actions={
           <div className="flex gap-2">
-            {hasAnyRole(user.roles, SWEEP_ROLES) && (
+            {hasAnyRole(user.roles, ACCESS.launchSweeps) && (
               <Link className={`${action} border border-ink-600 bg-ink-800 text-paper-100 hover:bg-ink-700`} to={paths.app.newSweep.getHref()}>
                 New grade sweep
               </Link>
             )}
-            {hasAnyRole(user.roles, LAUNCH_ROLES) && (
+            {hasAnyRole(user.roles, ACCESS.launchRuns) && (
               <Link className={`${action} bg-signal-500 text-ink-950 hover:bg-signal-400`} to={paths.app.newRun.getHref()}>
                 New run
               </Link>

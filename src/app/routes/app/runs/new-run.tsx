@@ -1,14 +1,14 @@
 import type { QueryClient } from "@tanstack/react-query";
 import { useSearchParams } from "react-router-dom";
-import { hasAnyRole } from "@shared/roles";
+import { ACCESS, hasAnyRole } from "@shared/contracts";
 import { ForbiddenNotice } from "@/components/errors/forbidden-notice";
 import { RegionBoundary } from "@/components/errors/region-boundary";
 import { PageHeader } from "@/components/layouts/page-header";
 import { Card } from "@/components/ui/card";
-import { getDesignsQueryOptions, getGradesQueryOptions } from "@/features/runs/api/get-launch-data";
+import { getDesignsQueryOptions } from "@/features/designs";
+import { getGradesQueryOptions } from "@/features/grades";
 import { LaunchForm } from "@/features/runs/components/launch-form";
 import { useAppUser } from "@/app/routes/app/app-context";
-import { LAUNCH_ROLES } from "@/app/routes/app/runs/roles";
 
 export const clientLoader = (queryClient: QueryClient) => async () => {
   void queryClient.prefetchQuery(getDesignsQueryOptions());
@@ -19,7 +19,7 @@ export const clientLoader = (queryClient: QueryClient) => async () => {
 export default function NewRunRoute() {
   const user = useAppUser();
   const [search] = useSearchParams();
-  if (!hasAnyRole(user.roles, LAUNCH_ROLES)) return <ForbiddenNotice screen="New run" role="designer, planner or analyst" />;
+  if (!hasAnyRole(user.roles, ACCESS.launchRuns)) return <ForbiddenNotice screen="New run" role="designer, planner or analyst" />;
   const initial = { designId: search.get("design") ?? "", revisionId: search.get("revision") ?? "", limitSetId: search.get("limitSet") ?? "" };
   return (
     <>

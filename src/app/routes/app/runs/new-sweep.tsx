@@ -1,14 +1,14 @@
 import type { QueryClient } from "@tanstack/react-query";
 import { useSearchParams } from "react-router-dom";
-import { hasAnyRole } from "@shared/roles";
+import { ACCESS, hasAnyRole } from "@shared/contracts";
 import { ForbiddenNotice } from "@/components/errors/forbidden-notice";
 import { RegionBoundary } from "@/components/errors/region-boundary";
 import { PageHeader } from "@/components/layouts/page-header";
 import { Card } from "@/components/ui/card";
-import { getDesignsQueryOptions, getGradesQueryOptions } from "@/features/runs/api/get-launch-data";
+import { getDesignsQueryOptions } from "@/features/designs";
+import { getGradesQueryOptions } from "@/features/grades";
 import { SweepForm } from "@/features/sweeps/components/sweep-form";
 import { useAppUser } from "@/app/routes/app/app-context";
-import { SWEEP_ROLES } from "@/app/routes/app/runs/roles";
 
 export const clientLoader = (queryClient: QueryClient) => async () => {
   void queryClient.prefetchQuery(getDesignsQueryOptions());
@@ -19,7 +19,7 @@ export const clientLoader = (queryClient: QueryClient) => async () => {
 export default function NewSweepRoute() {
   const user = useAppUser();
   const [search] = useSearchParams();
-  if (!hasAnyRole(user.roles, SWEEP_ROLES)) return <ForbiddenNotice screen="Grade sweep" role="analyst" />;
+  if (!hasAnyRole(user.roles, ACCESS.launchSweeps)) return <ForbiddenNotice screen="Grade sweep" role="analyst" />;
   return (
     <>
       <title>New grade sweep · Lotwise</title>

@@ -1,7 +1,7 @@
 import type { RouteObject } from "react-router-dom";
 import type { NavItem } from "@/components/layouts/app-layout";
 import { paths } from "@/config/paths";
-import type { User } from "@/features/auth/api/types";
+import type { AuthUserView as User } from "@shared/contracts";
 import type { RouteLoad } from "@/app/router";
 
 /** The run screens' routes inside the app frame (lazy; paths from @/config/paths). */

@@ -6,7 +6,7 @@ import { RegionBoundary } from "@/components/errors/region-boundary";
 import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
 import { paths } from "@/config/paths";
-import { getDesignQueryOptions } from "@/features/runs/api/get-launch-data";
+import { getDesignQueryOptions } from "@/features/designs";
 import { getRunQueryOptions, useRun } from "@/features/runs/api/get-run";
 import { RunReport } from "@/features/runs/components/run-report";
 import { SafetyCaution } from "@/features/runs/components/safety-caution";

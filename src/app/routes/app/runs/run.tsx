@@ -1,7 +1,7 @@
 import type { QueryClient } from "@tanstack/react-query";
 import { useQuery } from "@tanstack/react-query";
 import { Link, useParams, type LoaderFunctionArgs } from "react-router-dom";
-import { hasAnyRole } from "@shared/roles";
+import { ACCESS, hasAnyRole } from "@shared/contracts";
 import { RegionBoundary } from "@/components/errors/region-boundary";
 import { PageHeader } from "@/components/layouts/page-header";
 import { Alert } from "@/components/ui/alert";
@@ -10,16 +10,15 @@ import { Card } from "@/components/ui/card";
 import { paths } from "@/config/paths";
 import { CommentsPanel } from "@/features/review/components/comments-panel";
 import { ReviewPanel } from "@/features/review/components/review-panel";
-import { getDesignQueryOptions } from "@/features/runs/api/get-launch-data";
+import { getDesignQueryOptions } from "@/features/designs";
 import { getRunQueryOptions, useRun } from "@/features/runs/api/get-run";
-import { isFinished } from "@/features/runs/api/types";
+import { isFinishedRunState as isFinished } from "@shared/contracts";
 import { RunDashboard } from "@/features/runs/components/run-dashboard";
 import { RunFacts } from "@/features/runs/components/run-facts";
 import { RunProgressPanel } from "@/features/runs/components/run-progress";
 import { SafetyCaution } from "@/features/runs/components/safety-caution";
 import { WhatIfForm } from "@/features/runs/components/what-if-form";
 import { useAppUser } from "@/app/routes/app/app-context";
-import { LAUNCH_ROLES } from "@/app/routes/app/runs/roles";
 
 export const clientLoader = (queryClient: QueryClient) => async ({ params }: LoaderFunctionArgs) => {
   void queryClient.prefetchQuery(getRunQueryOptions(params.runId ?? ""));
@@ -40,7 +39,7 @@ function RunPage({ runId }: { runId: string }) {
   const { data } = useRun(runId);
   const { run, result, economics } = data;
   const design = useQuery(getDesignQueryOptions(run.designId));
-  const canLaunch = hasAnyRole(user.roles, LAUNCH_ROLES);
+  const canLaunch = hasAnyRole(user.roles, ACCESS.launchRuns);
   const caution = <SafetyCaution stress={run.designStress ?? design.data?.design.stress} />;
   const measured = design.data?.measured.map((m) => ({ id: m.id, name: m.name })) ?? [];
 

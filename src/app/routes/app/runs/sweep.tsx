@@ -9,7 +9,7 @@ import { getSweepQueryOptions, useSweep } from "@/features/sweeps/api/sweeps";
 import { SweepTable } from "@/features/sweeps/components/sweep-table";
 import { percent } from "@/features/runs/utils/format";
 import { useQuery } from "@tanstack/react-query";
-import { getDesignQueryOptions } from "@/features/runs/api/get-launch-data";
+import { getDesignQueryOptions } from "@/features/designs";
 import { SafetyCaution } from "@/features/runs/components/safety-caution";
 
 export const clientLoader = (queryClient: QueryClient) => async ({ params }: LoaderFunctionArgs) => {

@@ -1,5 +1,5 @@
 import type { EChartsCoreOption } from "echarts/core";
-import type { HistogramJson } from "@/features/runs/api/types";
+import type { Histogram as HistogramJson } from "@shared/engine/stats/histogram";
 import { axisStyle, baseTextStyle, chartColors } from "@/features/runs/components/charts/theme";
 
 /**
