@@ -25,14 +25,14 @@ import { compileNetlist, createSweepEvaluator, nominalValues } from "../shared/e
 import { buildFrequencyGrid } from "../shared/engine/frequency-grid";
 import { synthesizeLadder } from "../shared/engine/synthesis/index";
 import { createTrialPool } from "../server/engine/trial-pool";
-import { denseSweep } from "../tests/oracles/dense-solver";
+import { denseSweep } from "./oracles/dense-solver";
 import { Redis } from "ioredis";
 import { startRedis, type RedisServer } from "./redis";
 import { createDistributedDispatcher, type DistributedDispatcher } from "../server/engine/distributed-dispatcher";
 import { toStoredResult } from "../server/services/run-queue";
 import { createLogger } from "../server/logger";
 import type { RunResult } from "../shared/engine/result";
-import { freePort, startWorker, type WorkerProcess } from "../tests/helpers/distributed";
+import { freePort, startWorker, type WorkerProcess } from "./worker-process";
 
 interface System {
   name: string;

@@ -263,7 +263,43 @@ async function main(): Promise<number> {
   return new Promise(() => undefined);
 }
 
+/** One static check of `npm test`: it counts as one test in the closing line, failed when the tool exits non-zero. */
+interface Check {
+  name: string;
+  command: string;
+  args: string[];
+}
+
+/**
+ * The type-check (TypeScript 7 over client, server, workers, shared, tests and scripts: tsconfig.json's include) and
+ * the linter (oxlint with .oxlintrc.json: correctness rules and the import boundaries). LOTWISE_SKIP_CHECKS=1 skips
+ * them while iterating on one test file.
+ */
+const CHECKS: Check[] = [
+  { name: "type-check (tsc --noEmit -p tsconfig.json)", command: "node_modules/.bin/tsc", args: ["--noEmit", "-p", "tsconfig.json"] },
+  { name: "lint (oxlint)", command: "node_modules/.bin/oxlint", args: ["--format", "unix"] },
+];
+
+async function runChecks(): Promise<{ passed: number; failed: string[] }> {
+  if (process.env.LOTWISE_SKIP_CHECKS === "1") return { passed: 0, failed: [] };
+  const failed: string[] = [];
+  let passed = 0;
+  for (const check of CHECKS) {
+    console.log(`lotwise: ${check.name}`);
+    const child = spawnOwned(check.command, check.args, { stdio: "inherit" });
+    const code = await new Promise<number | null>((r) => child.once("exit", (c) => r(c)));
+    checkNotStopping();
+    if (code === 0) passed++;
+    else {
+      failed.push(check.name);
+      console.error(`lotwise: ${check.name} FAILED (exit ${code})`);
+    }
+  }
+  return { passed, failed };
+}
+
 async function runTests(): Promise<number> {
+  const checks = await runChecks();
   const port = Number(process.env.LOTWISE_TEST_DB_PORT ?? 3308);
   const db = await startDb(process.env.LOTWISE_TEST_DATA_DIR ?? ".tmp/mariadb-test", port);
   const creds = { name: "lotwise_test", user: "lotwise_test", password: "lotwise-test-db" };
@@ -291,6 +327,9 @@ async function runTests(): Promise<number> {
     passed = r.numPassedTests;
     failed = r.numFailedTests + (r.numFailedTests === 0 && code !== 0 ? Math.max(1, r.numFailedTestSuites) : 0);
   }
+  if (checks.failed.length) console.log(`lotwise: failed checks: ${checks.failed.join("; ")}`);
+  passed += checks.passed;
+  failed += checks.failed.length;
   console.log(`${passed} passed, ${failed} failed`);
   return code === 0 && failed === 0 ? 0 : 1;
 }

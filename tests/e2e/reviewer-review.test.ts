@@ -1,4 +1,3 @@
-import type { Page } from "playwright-core";
 import { ARTIFACTS, startE2e, signedInPage, type E2e } from "../helpers/browser";
 import { ORIGIN } from "../helpers/test-context";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";

@@ -6,7 +6,7 @@ import request from "supertest";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createApp } from "../../server/app";
 import { createSessionService } from "../../server/auth/sessions";
-import { DesignRevision, MeasuredResponse, Session, User } from "../../server/entities";
+import { DesignRevision, MeasuredResponse, Session } from "../../server/entities";
 import type { RouteInfo } from "../../server/routes/api-router";
 import { csvText } from "../../server/services/run-exports";
 import { ROLES } from "../../shared/roles";

@@ -8,7 +8,7 @@ import { createRunQueue } from "../../server/services/run-queue";
 import { createEmbeddedDispatcher } from "../../server/engine/dispatcher";
 import type { Netlist } from "../../shared/engine/netlist";
 import { createTestContext, ORIGIN, TEST_PASSWORD, type TestContext } from "../helpers/test-context";
-import { insertRun, LOWPASS, LOWPASS_LIMITS, makeRunFixture, type RunFixture } from "./access-samples/runs";
+import { insertRun, LOWPASS, makeRunFixture } from "./access-samples/runs";
 
 // Issue 10 ("Trust"), the faults of runs and revisions: each case below failed on the code before the fix (noted
 // beside it). Real MariaDB, real HTTP, real worker threads.

@@ -3,7 +3,6 @@ import { createAggregate, mergeInto } from "../../../shared/engine/aggregate";
 import { evaluateTrials, runMonteCarlo } from "../../../shared/engine/monte-carlo";
 import { planRun } from "../../../shared/engine/run-plan";
 import { wilsonHalfWidth } from "../../../shared/engine/stats/intervals";
-import type { Netlist } from "../../../shared/engine/netlist";
 import { butterLimits, butterworth3 } from "../../fixtures/butterworth3";
 
 

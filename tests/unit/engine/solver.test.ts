@@ -11,7 +11,7 @@ import {
   sParamDeg,
   type SweepBuffers,
 } from "../../../shared/engine/solver";
-import { denseSweep } from "../../oracles/dense-solver";
+import { denseSweep } from "../../../scripts/oracles/dense-solver";
 import { expectClose, expectComplexClose } from "../../helpers/expect-close";
 
 // ---------------------------------------------------------------------------------------------

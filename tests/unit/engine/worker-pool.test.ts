@@ -2,7 +2,6 @@ import { afterAll, describe, expect, it } from "vitest";
 import { EngineError } from "../../../shared/engine/errors";
 import { runMonteCarlo } from "../../../shared/engine/monte-carlo";
 import { createTrialPool } from "../../../server/engine/trial-pool";
-import type { Netlist } from "../../../shared/engine/netlist";
 import { butterLimits, butterworth3 } from "../../fixtures/butterworth3";
 
 

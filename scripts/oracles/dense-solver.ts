@@ -10,7 +10,8 @@
  * Part admittances are written directly from their impedances (no shared code with the solver):
  *   R: 1/R;  L: 1/(R_q + jωL) + jωC_srf (R_q = 2π·at·L/Q, C_srf = 1/((2π·srf)²L));
  *   C: 1/(esr + jω·esl + 1/(jωC));  with dy/dω = −(dz/dω)/z² for each impedance.
- * It is slow (O(N³) per port per frequency) on purpose: it is meant to be obviously right.
+ * It is slow (O(N³) per port per frequency) on purpose: it is meant to be obviously right. It lives outside tests/
+ * because the bench times it too (scripts/bench.ts); the solver tests import it from here.
  */
 import type { Netlist, Part } from "../../shared/engine/netlist";
 
