@@ -464,11 +464,13 @@ async function fairnessScenario(client: LoadClient, cookies: string[], small: { 
   const median = (xs: number[]) => [...xs].sort((x, y) => x - y)[Math.floor(xs.length / 2)];
 
   // A's designs: the largest circuit, and a large one with a finished run to replay and export.
-  const limits = (await client.send("setup", "GET", "/api/settings/compute-limits", { cookie: a })).body.limits as { maxRunCost: number };
-  console.log(`soak: compute limit ${limits.maxRunCost.toExponential(1)} part evaluations per run`);
-  const corners = [-40, -25, -10, 0, 10, 25, 40, 55, 70, 85];
+  const limits = (await client.send("setup", "GET", "/api/settings/compute-limits", { cookie: a })).body.limits as { maxRunCost: number; maxTrialCost: number };
+  console.log(`soak: compute limits ${limits.maxRunCost.toExponential(1)} part evaluations per run, ${limits.maxTrialCost.toExponential(1)} per trial`);
+  // The largest allowed run: 500 parts (the API's most) at one corner, as many sweep points as one trial may have.
+  const corners = [25];
+  const points = Math.min(10001, Math.floor(limits.maxTrialCost / 500) - 2);
   const mk = async (name: string, sections: number) => {
-    const d = await client.send("setup", "POST", "/api/designs", { cookie: a, body: { name, netlist: ladder(sections), sweep: { from: 1e6, to: 1e9, points: 10001, scale: "log" } } });
+    const d = await client.send("setup", "POST", "/api/designs", { cookie: a, body: { name, netlist: ladder(sections), sweep: { from: 1e6, to: 1e9, points: sections === 250 ? points : 10001, scale: "log" } } });
     const l = await client.send("setup", "POST", `/api/designs/${d.body.design.id}/limit-sets`, { cookie: a, body: { name: "acceptance", limits: { rules: [{ metric: "s21_db", from: 1e6, to: 5e6, min: -3 }] }, lotSize: 1000 } });
     return { revisionId: d.body.revision.id as string, limitSetId: l.body.limitSet.id as string };
   };
@@ -478,7 +480,7 @@ async function fairnessScenario(client: LoadClient, cookies: string[], small: { 
   const refused = await client.send("largest run", "POST", "/api/runs", { cookie: a, body: { ...largest, trials: 1_000_000, seed: 5, corners }, expect: [400] });
   const maxTrials = Number(/at most (\d+) trials/.exec(String(refused.body?.error?.fields?.trials))?.[1]);
   if (!(maxTrials >= 1)) throw new Error(`no trial limit in ${JSON.stringify(refused.body)}`);
-  const exportRun = await client.send("setup", "POST", "/api/runs", { cookie: a, body: { ...large, trials: 40, seed: 7, corners: corners.slice(0, 3) } });
+  const exportRun = await client.send("setup", "POST", "/api/runs", { cookie: a, body: { ...large, trials: 40, seed: 7 } });
   await waitState(exportRun.body.run.id, a, (s) => s === "done");
 
   const alone = [await smallRun(11), await smallRun(12), await smallRun(13)];
@@ -517,9 +519,9 @@ async function fairnessScenario(client: LoadClient, cookies: string[], small: { 
   console.log(`
 Lotwise fairness (2 trial threads, 1 export thread, up to 4 runs at once, one per person):`);
   console.log(`  person B's 5,000-trial run alone:                          ${fmt(alone)} s (median ${median(alone).toFixed(2)} s)`);
-  console.log(`  the same beside person A's largest allowed run (${maxTrials} trials × 10 corners × 10,003 points × 500 parts, ${bigNow.trialsDone} done meanwhile):`);
+  console.log(`  the same beside person A's largest allowed run (${maxTrials} trials × ${corners.length} corner × ${points + 2} points × 500 parts, ${bigNow.trialsDone} done meanwhile):`);
   console.log(`                                                            ${fmt(beside)} s (median ${median(beside).toFixed(2)} s, ${(median(beside) / median(alone)).toFixed(2)}× alone)`);
-  console.log(`  /api/health during ${replays.length} replays (${fmt(replays.map((x) => x / 1000))} s) of a 200-part × 10,003-point × 3-corner run and its trials CSV (${csvSecs.toFixed(1)} s, ${String(csv.body).length} bytes):`);
+  console.log(`  /api/health during ${replays.length} replays (${fmt(replays.map((x) => x / 1000))} s) of a 200-part × 10,003-point run and its trials CSV (${csvSecs.toFixed(1)} s, ${String(csv.body).length} bytes):`);
   console.log(`    ${health.length} samples: p50 ${percentile(health, 50).toFixed(1)} ms, p99 ${percentile(health, 99).toFixed(1)} ms, max ${Math.max(...health).toFixed(1)} ms (${health.filter((x) => x > 100).length} over 100 ms)`);
   const failed = client.summary().reduce((n, r) => n + r.failed, 0);
   if (client.failures.length) console.log(`failures:\n  ${client.failures.join("\n  ")}`);

@@ -12,10 +12,10 @@ import type { AppContext } from "../context";
 import type { Run } from "../entities";
 import { AppError } from "../errors";
 import type { RunOptions } from "../../shared/engine/run-options";
-import { planRun } from "../../shared/engine/run-plan";
+import { shapeRun } from "../../shared/engine/run-plan";
 import { ruleName, type RunInputs } from "../../shared/formats/run-exports";
 import { computeCost } from "../../shared/schemas/settings";
-import { checkExportCost, planShape, runLimits } from "./run-limits";
+import { checkExportCost, runLimits, shapeCost } from "./run-limits";
 
 export { csvNumber } from "../../shared/formats/run-exports";
 
@@ -103,9 +103,10 @@ export async function planTrialsCsv(ctx: AppContext, run: Run, trials: number): 
   if (trials > MAX_CSV_TRIALS) {
     throw new AppError("INVALID_INPUT", `A trials export holds at most ${MAX_CSV_TRIALS} trials; this run has ${trials}.`, { fields: { trials: `at most ${MAX_CSV_TRIALS}` } });
   }
-  const plan = planRun(run.netlist, run.limits, { ...(run.options as unknown as RunOptions), trials: Math.max(trials, 1) });
-  checkExportCost(plan, trials, await runLimits(ctx));
-  const perTrial = computeCost({ ...planShape(plan), trials: 1 });
+  // The shape (validated, not solved) is enough to price the export; the export thread builds the plan.
+  const shape = shapeRun(run.netlist, run.limits, { ...(run.options as unknown as RunOptions), trials: Math.max(trials, 1) });
+  checkExportCost(shape, trials, await runLimits(ctx));
+  const perTrial = computeCost({ ...shapeCost(shape), trials: 1 });
   const step = Math.max(1, Math.min(1000, Math.floor(CSV_SLICE_COST / perTrial)));
   const slices: { start: number; count: number }[] = [];
   for (let start = 0; start < trials; start += step) slices.push({ start, count: Math.min(step, trials - start) });

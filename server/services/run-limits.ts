@@ -6,7 +6,7 @@
 import type { AppContext } from "../context";
 import { AppSetting } from "../entities";
 import { AppError } from "../errors";
-import type { RunPlan } from "../../shared/engine/run-plan";
+import type { RunShape } from "../../shared/engine/run-plan";
 import { computeCost, computeLimitsSchema, DEFAULT_COMPUTE_LIMITS, type ComputeLimits } from "../../shared/schemas/settings";
 
 const KEY = "compute-limits";
@@ -31,9 +31,9 @@ export interface CostShape {
   parts: number;
 }
 
-/** The shape that sets a plan's cost. */
-export function planShape(plan: RunPlan, trials = plan.options.trials): CostShape {
-  return { trials, corners: plan.options.corners.length, points: plan.grid.freqs.length, parts: plan.sampling.partCount };
+/** The cost shape of a run's shape (shared/engine/run-plan.ts: validated, not solved). */
+export function shapeCost(shape: RunShape, trials = shape.options.trials): CostShape {
+  return { trials, corners: shape.options.corners.length, points: shape.points, parts: shape.parts };
 }
 
 const fmt = (x: number) => x.toExponential(2).replace("e+", "e");
@@ -45,8 +45,8 @@ const n = (x: number) => x.toLocaleString("en-US");
  */
 export function checkRunCost(shape: CostShape, limits: ComputeLimits): void {
   const cost = computeCost(shape);
-  if (cost <= limits.maxRunCost) return;
   const perTrial = computeCost({ ...shape, trials: 1 });
+  if (cost <= limits.maxRunCost) return checkTrialCost(shape, perTrial, limits);
   const most = Math.max(0, Math.floor(limits.maxRunCost / perTrial));
   const message =
     `this run would cost ${fmt(cost)} part evaluations (${n(shape.trials)} trials × ${shape.corners} corner${shape.corners === 1 ? "" : "s"} × ${n(shape.points)} frequency points × ${shape.parts} parts); ` +
@@ -55,11 +55,25 @@ export function checkRunCost(shape: CostShape, limits: ComputeLimits): void {
 }
 
 /**
+ * Refuses a run one trial of which costs more than the per-trial limit (a thread is held for a whole trial, so this
+ * bounds how long other runs wait), naming `corners` when there are several, else `revisionId` (its sweep and parts).
+ * @throws AppError 400 RUN_TOO_COSTLY
+ */
+function checkTrialCost(shape: CostShape, perTrial: number, limits: ComputeLimits): void {
+  if (perTrial <= limits.maxTrialCost) return;
+  const field = shape.corners > 1 ? "corners" : "revisionId";
+  const message =
+    `one trial of this run would cost ${fmt(perTrial)} part evaluations (${shape.corners} corner${shape.corners === 1 ? "" : "s"} × ${n(shape.points)} frequency points × ${shape.parts} parts); ` +
+    `the limit per trial is ${fmt(limits.maxTrialCost)}: use fewer corners, a coarser sweep or ask the admin to raise the limit.`;
+  throw new AppError("RUN_TOO_COSTLY", `${field}: ${message}`, { fields: { [field]: message } });
+}
+
+/**
  * Refuses an export of `trials` trials of a plan over the export limit.
  * @throws AppError 400 RUN_TOO_COSTLY naming `trials`
  */
-export function checkExportCost(plan: RunPlan, trials: number, limits: ComputeLimits): void {
-  const cost = computeCost(planShape(plan, trials));
+export function checkExportCost(shape: RunShape, trials: number, limits: ComputeLimits): void {
+  const cost = computeCost(shapeCost(shape, trials));
   if (cost <= limits.maxExportCost) return;
   const message = `exporting ${n(trials)} trials of this run would cost ${fmt(cost)} part evaluations; the export limit is ${fmt(limits.maxExportCost)}.`;
   throw new AppError("RUN_TOO_COSTLY", `trials: ${message}`, { fields: { trials: message } });

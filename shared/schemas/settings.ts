@@ -9,6 +9,12 @@ import { z } from "zod";
 export const DEFAULT_COMPUTE_LIMITS = {
   /** most part evaluations one run may ask for (default 2·10¹⁰: about 15 minutes of one thread) */
   maxRunCost: 2e10,
+  /**
+   * most part evaluations of one trial (corners × points × parts; default 3·10⁶: about a second of one thread even
+   * on the largest circuits). A trial is the smallest piece of work a thread takes, so this bounds how long another
+   * person's run can wait for a thread.
+   */
+  maxTrialCost: 3e6,
   /** most part evaluations one export (trials CSV) may take (default 10⁹: under a minute of one thread) */
   maxExportCost: 1e9,
   /** wall-clock budget of one replay or export on the export thread; past it the export is stopped */
@@ -20,6 +26,7 @@ const cost = (what: string) =>
 
 export const computeLimitsSchema = z.strictObject({
   maxRunCost: cost("maxRunCost"),
+  maxTrialCost: z.number({ message: "maxTrialCost must be a number" }).int({ message: "maxTrialCost must be a whole number" }).min(1e4, { message: "maxTrialCost must be at least 1e4" }).max(1e12, { message: "maxTrialCost must be at most 1e12" }),
   maxExportCost: cost("maxExportCost"),
   maxExportSeconds: z.number({ message: "maxExportSeconds must be a number" }).int({ message: "maxExportSeconds must be a whole number" }).min(1, { message: "maxExportSeconds must be ≥ 1" }).max(3600, { message: "maxExportSeconds must be ≤ 3600" }),
 });

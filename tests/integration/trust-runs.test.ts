@@ -206,7 +206,7 @@ describe("compute limits (fault 3)", () => {
 
     const small = await makeRunFixture(t, analyst.user);
     const limits = (await analyst.agent.get("/api/settings/compute-limits").expect(200)).body.limits;
-    expect(limits).toEqual({ maxRunCost: 2e10, maxExportCost: 1e9, maxExportSeconds: 60 });
+    expect(limits).toEqual({ maxRunCost: 2e10, maxTrialCost: 3e6, maxExportCost: 1e9, maxExportSeconds: 60 });
     await put(analyst.agent, "/api/settings/compute-limits").send({ ...limits, maxRunCost: 1e6 }).expect(403);
     const bad = await put(admin.agent, "/api/settings/compute-limits").send({ ...limits, maxRunCost: -5 }).expect(400);
     expect(bad.body.error.fields).toHaveProperty(["maxRunCost"]);
@@ -219,6 +219,11 @@ describe("compute limits (fault 3)", () => {
     } finally {
       await put(admin.agent, "/api/settings/compute-limits").send(limits).expect(200);
     }
+    // one trial of 10 corners × 10,003 points × 200 parts is over the per-trial limit, however few trials: named by corners
+    const perTrial = await post(analyst.agent, "/api/runs").send({ revisionId: f.revision.id, limitSetId: f.limitSet.id, trials: 5, corners: [-40, -25, -10, 0, 10, 25, 40, 55, 70, 85] }).expect(400);
+    expect(perTrial.body.error.fields.corners).toMatch(/one trial of this run would cost 2\.00e7 .* the limit per trial is 3\.00e6/);
+    const oneCorner = await post(analyst.agent, "/api/runs").send({ revisionId: f.revision.id, limitSetId: f.limitSet.id, trials: 5 }).expect(201); // 200 × 10,002 ≈ 2.0e6
+    await t.ctx.runQueue.cancel(oneCorner.body.run.id);
     await t.ctx.runQueue.idle();
   }, 30_000);
 });

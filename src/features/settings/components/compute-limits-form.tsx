@@ -25,14 +25,19 @@ const show = (x: number) => (x >= 1e6 ? x.toExponential().replace("e+", "e") : S
  */
 export function ComputeLimitsForm() {
   const { limits, defaults } = useComputeLimits().data;
-  const form = useForm({ maxRunCost: show(limits.maxRunCost), maxExportCost: show(limits.maxExportCost), maxExportSeconds: String(limits.maxExportSeconds) });
+  const form = useForm({
+    maxRunCost: show(limits.maxRunCost), maxTrialCost: show(limits.maxTrialCost), maxExportCost: show(limits.maxExportCost), maxExportSeconds: String(limits.maxExportSeconds),
+  });
   const save = useSaveComputeLimits();
   const [saved, setSaved] = useState(false);
 
   function handleSubmit(event: FormEvent<HTMLFormElement>) {
     event.preventDefault();
     setSaved(false);
-    const values = { maxRunCost: readNumber(form.values.maxRunCost), maxExportCost: readNumber(form.values.maxExportCost), maxExportSeconds: readNumber(form.values.maxExportSeconds) };
+    const values = {
+      maxRunCost: readNumber(form.values.maxRunCost), maxTrialCost: readNumber(form.values.maxTrialCost),
+      maxExportCost: readNumber(form.values.maxExportCost), maxExportSeconds: readNumber(form.values.maxExportSeconds),
+    };
     const parsed = validateWith(computeLimitsSchema, values);
     if (!parsed.ok) return form.showErrors(parsed.errors);
     form.showErrors({});
@@ -41,14 +46,16 @@ export function ComputeLimitsForm() {
 
   return (
     <form noValidate onSubmit={handleSubmit} className="flex flex-col gap-4">
-      <div className="grid gap-4 md:grid-cols-3">
+      <div className="grid gap-4 md:grid-cols-2 xl:grid-cols-4">
         <TextField label="Most a run may cost" inputMode="decimal" hint={`part evaluations; default ${show(defaults.maxRunCost)}`} {...form.bind("maxRunCost")} error={form.errors.maxRunCost} />
+        <TextField label="Most one trial may cost" inputMode="decimal" hint={`part evaluations; default ${show(defaults.maxTrialCost)}`} {...form.bind("maxTrialCost")} error={form.errors.maxTrialCost} />
         <TextField label="Most an export may cost" inputMode="decimal" hint={`part evaluations; default ${show(defaults.maxExportCost)}`} {...form.bind("maxExportCost")} error={form.errors.maxExportCost} />
         <TextField label="Time budget of a replay or export" inputMode="numeric" hint={`seconds; default ${defaults.maxExportSeconds}`} {...form.bind("maxExportSeconds")} error={form.errors.maxExportSeconds} />
       </div>
       <p className="text-xs text-ink-300">
-        A part evaluation is one part at one frequency point, temperature corner and trial. One thread does roughly 25 million a second on a
-        ladder, so the default run limit is about a quarter of an hour of one thread.
+        A part evaluation is one part at one frequency point, temperature corner and trial. One thread does about 2.5 to 25 million a second
+        (large circuits are slower per part), so the default run limit is a quarter of an hour to a few hours of one thread. A thread
+        works on a whole trial at a time, so the trial limit bounds how long someone else's run waits for a thread.
       </p>
       {form.formError && <Alert tone="error" title="Not saved">{form.formError}</Alert>}
       {saved && <p role="status" className="text-sm text-pass-300">Compute limits saved.</p>}
