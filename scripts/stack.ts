@@ -277,7 +277,7 @@ interface Check {
  */
 const CHECKS: Check[] = [
   { name: "type-check (tsc --noEmit -p tsconfig.json)", command: "node_modules/.bin/tsc", args: ["--noEmit", "-p", "tsconfig.json"] },
-  { name: "lint (oxlint)", command: "node_modules/.bin/oxlint", args: ["--format", "unix"] },
+  { name: "lint (oxlint)", command: "node_modules/.bin/oxlint", args: [] },
 ];
 
 async function runChecks(): Promise<{ passed: number; failed: string[] }> {

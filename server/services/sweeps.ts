@@ -3,29 +3,18 @@ import { In } from "typeorm";
 import type { AuthUser } from "../auth/sessions";
 import type { AppContext } from "../context";
 import { Design, DesignRevision, Grade, GradeSweep, LimitSet, Run } from "../entities";
-import type { RunState } from "../entities/run.entity";
 import { AppError, notFound } from "../errors";
 import { runEconomics } from "../presenters/run.presenter";
 import { runSummaries } from "./history";
 import { createRun } from "./runs";
+import type { SweepRow } from "../../shared/contracts/runs";
 import type { CreateSweepInput } from "../../shared/schemas/review";
 
 /** Seeds are drawn from 0..2^31−1 when the analyst gives none (all runs of the sweep share it). */
 const SEED_LIMIT = 2 ** 31;
 
-/** One line of a sweep's results table. */
-export interface SweepRow {
-  runId: string;
-  label: string;
-  state: RunState;
-  yield: number | null;
-  wilson95: [number, number] | null;
-  bomCost: number | null;
-  /** bomCost / yield: what one good unit costs when the bad ones are scrapped (null before a yield, or at zero yield) */
-  costPerGoodUnit: number | null;
-  /** done, and the 95 % Wilson lower bound of the yield ≥ the target */
-  meetsTarget: boolean;
-}
+/** One line of a sweep's results table: the API contract's row (shared/contracts/runs.ts). */
+export type { SweepRow };
 
 /**
  * The sweep's table and its pick: among finished runs whose Wilson lower bound meets the target yield (so the

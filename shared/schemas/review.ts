@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { REVIEW_ACTIONS, RUN_STATES } from "../contracts/vocabulary";
+import { MAX_GRADE_CODE_LENGTH, REVIEW_ACTIONS, RUN_STATES } from "../contracts/vocabulary";
 import { partRecord } from "./part-record";
 
 /**
@@ -93,7 +93,7 @@ export type ReviewActionInput = z.infer<typeof reviewActionSchema>;
 const assignmentSchema = z.strictObject({
   label: z.string({ message: "label is required" }).trim().min(1, { message: "label must not be empty" }).max(160, { message: "label is at most 160 characters" }),
   /** part ref → grade code of the catalogue (checked against the revision and the catalogue by the service) */
-  gradeOverrides: partRecord(z.string().min(1).max(40), z.string().min(1, { message: "grade code must not be empty" }).max(40)),
+  gradeOverrides: partRecord(z.string().min(1).max(40), z.string().min(1, { message: "grade code must not be empty" }).max(MAX_GRADE_CODE_LENGTH)),
 });
 
 /** `POST /api/sweeps`: one run per assignment, all with the same seed. */

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { MAX_GRADE_CODE_LENGTH } from "../contracts/vocabulary";
 import { partRecord } from "./part-record";
 
 /**
@@ -42,7 +43,7 @@ export const createRunSchema = z.strictObject({
     .min(1, { message: "list at least one temperature" })
     .max(10, { message: "at most 10 temperature corners" })
     .optional(),
-  gradeOverrides: partRecord(partRef, z.string().min(1).max(40)).optional(),
+  gradeOverrides: partRecord(partRef, z.string().min(1).max(MAX_GRADE_CODE_LENGTH)).optional(),
   toleranceOverrides: partRecord(partRef, toleranceOverrideSchema).optional(),
   label: z.string().trim().max(160, { message: "label is at most 160 characters" }).optional(),
   // No `sweepId`: which sweep a run belongs to is the server's to say (POST /api/sweeps); the strict object refuses
