@@ -1,5 +1,5 @@
 import { keepPreviousData, queryOptions, useQuery } from "@tanstack/react-query";
-import type { RunPage } from "@shared/contracts";
+import { isFinishedRunState, type RunPage } from "@shared/contracts";
 import type { HISTORY_SORTS } from "@shared/schemas/review";
 import { api } from "@/lib/api-client";
 import { runKeys } from "@/features/runs";
@@ -41,7 +41,7 @@ export function getRunsQueryOptions(query: RunQuery) {
     queryFn: () => api.get<RunPage>(`/runs${qs ? `?${qs}` : ""}`),
     placeholderData: keepPreviousData,
     // Unfinished runs in view move on by themselves: refresh the page every 3 s while any is queued or running.
-    refetchInterval: (q) => (q.state.data?.runs.some((r) => r.state === "queued" || r.state === "running") ? 3000 : false),
+    refetchInterval: (q) => (q.state.data?.runs.some((r) => !isFinishedRunState(r.state)) ? 3000 : false),
   });
 }
 

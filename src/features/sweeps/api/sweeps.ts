@@ -1,5 +1,5 @@
 import { queryOptions, useMutation, useQueryClient, useSuspenseQuery } from "@tanstack/react-query";
-import type { CreatedSweepResponse, SweepResponse, SweepRow } from "@shared/contracts";
+import { isFinishedRunState, type CreatedSweepResponse, type SweepResponse, type SweepRow } from "@shared/contracts";
 import { createSweepSchema, type CreateSweepInput } from "@shared/schemas/review";
 import { api, checkBody } from "@/lib/api-client";
 import { invalidateAfterLaunch } from "@/features/runs";
@@ -27,7 +27,7 @@ export function getSweepQueryOptions(sweepId: string) {
   return queryOptions({
     queryKey: sweepKeys.detail(sweepId),
     queryFn: () => api.get<SweepResponse>(`/sweeps/${encodeURIComponent(sweepId)}`),
-    refetchInterval: (q) => (q.state.data?.rows.some((r) => r.state === "queued" || r.state === "running") ? 2000 : false),
+    refetchInterval: (q) => (q.state.data?.rows.some((r) => !isFinishedRunState(r.state)) ? 2000 : false),
   });
 }
 

@@ -11,6 +11,7 @@ import { percent } from "@/features/runs/utils/format";
 import { useQuery } from "@tanstack/react-query";
 import { getDesignQueryOptions } from "@/features/designs";
 import { SafetyCaution } from "@/features/runs/components/safety-caution";
+import { isFinishedRunState } from "@shared/contracts";
 
 export const clientLoader = (queryClient: QueryClient) => async ({ params }: LoaderFunctionArgs) => {
   void queryClient.prefetchQuery(getSweepQueryOptions(params.sweepId ?? ""));
@@ -28,7 +29,7 @@ export default function SweepRoute() {
 
 function SweepPage({ sweepId }: { sweepId: string }) {
   const data = useSweep(sweepId).data;
-  const pending = data.rows.filter((r) => r.state === "queued" || r.state === "running").length;
+  const pending = data.rows.filter((r) => !isFinishedRunState(r.state)).length;
   const cheapest = data.rows.find((r) => r.runId === data.cheapestMeetingTarget);
   const doneIds = data.rows.filter((r) => r.state === "done").map((r) => r.runId);
   const design = useQuery(getDesignQueryOptions(data.sweep.designId));
