@@ -61,6 +61,21 @@ export interface TrialAggregate {
   /** first failing trial indices, ascending, at most failingTrialCount */
   failing: number[];
   sample: SampleSegment[];
+  /**
+   * The envelope counts as (index, count) pairs instead of `envelopeCounts` (then empty), when most cells are zero: how
+   * a chunk of few trials travels from a worker (decodeAggregate), so its transfer and merge cost follow the trials,
+   * not the 4-million-cell envelope. mergeInto takes either form; a merged total is always dense.
+   */
+  envelopeSparse?: { length: number; index: Uint32Array; count: Uint32Array };
+}
+
+/** The envelope counts of an aggregate as a dense array (copied from the sparse form when it has one). */
+export function denseEnvelope(agg: TrialAggregate): Uint32Array {
+  const sp = agg.envelopeSparse;
+  if (!sp) return agg.envelopeCounts;
+  const dense = new Uint32Array(sp.length);
+  for (let k = 0; k < sp.index.length; k++) dense[sp.index[k]] = sp.count[k];
+  return dense;
 }
 
 /** An empty aggregate for a plan. */
@@ -98,7 +113,7 @@ export function emptyAggregateLike(agg: TrialAggregate): TrialAggregate {
     marginMin: new Array(R).fill(Infinity),
     marginMax: new Array(R).fill(-Infinity),
     marginCounts: new Float64Array(agg.marginCounts.length),
-    envelopeCounts: new Uint32Array(agg.envelopeCounts.length),
+    envelopeCounts: new Uint32Array(agg.envelopeSparse?.length ?? agg.envelopeCounts.length),
     failing: [],
     sample: [],
   };
@@ -109,8 +124,9 @@ export function emptyAggregateLike(agg: TrialAggregate): TrialAggregate {
  * @throws EngineError INVALID_INPUT when the aggregates belong to different runs or overlap
  */
 export function mergeAggregates(a: TrialAggregate, b: TrialAggregate): TrialAggregate {
+  const { envelopeSparse: _sparse, ...dense } = a;
   const copy: TrialAggregate = {
-    ...a,
+    ...dense,
     ranges: a.ranges.map((r) => [r[0], r[1]] as [number, number]),
     ruleFailures: a.ruleFailures.slice(),
     marginSum: a.marginSum.map((x) => x.slice()),
@@ -118,7 +134,7 @@ export function mergeAggregates(a: TrialAggregate, b: TrialAggregate): TrialAggr
     marginMin: a.marginMin.slice(),
     marginMax: a.marginMax.slice(),
     marginCounts: a.marginCounts.slice(),
-    envelopeCounts: a.envelopeCounts.slice(),
+    envelopeCounts: a.envelopeSparse ? denseEnvelope(a) : a.envelopeCounts.slice(),
     failing: a.failing.slice(),
     sample: a.sample.slice(),
   };
@@ -144,7 +160,12 @@ export function mergeInto(target: TrialAggregate, b: TrialAggregate): void {
     target.marginMax[r] = Math.max(target.marginMax[r], b.marginMax[r]);
   }
   addCounts(target.marginCounts, b.marginCounts);
-  addCounts(target.envelopeCounts, b.envelopeCounts);
+  if (target.envelopeSparse) throw new EngineError("INVALID_INPUT", "cannot merge into a sparse aggregate", { path: "aggregate.envelopeSparse" });
+  const sp = b.envelopeSparse;
+  if (sp) {
+    const env = target.envelopeCounts;
+    for (let k = 0; k < sp.index.length; k++) env[sp.index[k]] += sp.count[k];
+  } else addCounts(target.envelopeCounts, b.envelopeCounts);
   target.failing = Array.from(new Set([...target.failing, ...b.failing])).sort((x, y) => x - y).slice(0, target.meta.failingTrialCount);
   target.sample = coalesceSegments([...target.sample, ...b.sample].sort((x, y) => x.start - y.start));
 }
@@ -178,14 +199,30 @@ function coalesceSegments(segments: SampleSegment[]): SampleSegment[] {
  * fields, padding to 8, then marginCounts (f64), sample arrays (f64), envelopeCounts (u32).
  */
 export function encodeAggregate(agg: TrialAggregate): Uint8Array {
-  const { marginCounts, envelopeCounts, sample, ...plain } = agg;
-  const header = { ...plain, marginCountsLength: marginCounts.length, envelopeLength: envelopeCounts.length, sample: sample.map((s) => ({ start: s.start, count: s.count, dl: s.deviations.length, ml: s.margins.length })) };
+  const { marginCounts, sample, envelopeSparse: _sparse, envelopeCounts: _dense, ...plain } = agg;
+  const envelopeCounts = denseEnvelope(agg);
+  // Few trials fill few envelope cells: then the nonzero cells travel as (index, count) pairs.
+  let nonzero = 0;
+  for (let k = 0; k < envelopeCounts.length; k++) if (envelopeCounts[k] !== 0) nonzero++;
+  const sparse = nonzero * 2 < envelopeCounts.length;
+  const u32 = sparse ? new Uint32Array(nonzero * 2) : envelopeCounts;
+  if (sparse) {
+    for (let k = 0, j = 0; k < envelopeCounts.length; k++) {
+      if (envelopeCounts[k] === 0) continue;
+      u32[j++] = k;
+      u32[j++] = envelopeCounts[k];
+    }
+  }
+  const header = {
+    ...plain, marginCountsLength: marginCounts.length, envelopeLength: envelopeCounts.length, envelopeNonzero: sparse ? nonzero : -1,
+    sample: sample.map((s) => ({ start: s.start, count: s.count, dl: s.deviations.length, ml: s.margins.length })),
+  };
   const json = new TextEncoder().encode(JSON.stringify(header, (_, v) => (v === Infinity ? "+inf" : v === -Infinity ? "-inf" : v)));
   const jsonEnd = 8 + json.length;
   const f64Start = Math.ceil(jsonEnd / 8) * 8;
   const f64Count = marginCounts.length + sample.reduce((n, s) => n + s.deviations.length + s.margins.length, 0);
   const u32Start = f64Start + f64Count * 8;
-  const bytes = new Uint8Array(u32Start + envelopeCounts.length * 4);
+  const bytes = new Uint8Array(u32Start + u32.length * 4);
   const view = new DataView(bytes.buffer);
   bytes.set([76, 87, 65, 49], 0); // "LWA1"
   view.setUint32(4, json.length, true);
@@ -200,7 +237,7 @@ export function encodeAggregate(agg: TrialAggregate): Uint8Array {
     f64.set(s.margins, o);
     o += s.margins.length;
   }
-  new Uint32Array(bytes.buffer, u32Start, envelopeCounts.length).set(envelopeCounts);
+  new Uint32Array(bytes.buffer, u32Start, u32.length).set(u32);
   return bytes;
 }
 
@@ -217,7 +254,22 @@ export function decodeAggregate(bytes: Uint8Array): TrialAggregate {
   const f64Count = header.marginCountsLength + header.sample.reduce((n: number, s: { dl: number; ml: number }) => n + s.dl + s.ml, 0);
   const f64 = new Float64Array(bytes.slice(base, base + f64Count * 8).buffer);
   const u32Start = base + f64Count * 8;
-  const envelopeCounts = new Uint32Array(bytes.slice(u32Start, u32Start + header.envelopeLength * 4).buffer);
+  const nonzero: number = header.envelopeNonzero ?? -1;
+  let envelopeCounts: Uint32Array;
+  let envelopeSparse: TrialAggregate["envelopeSparse"];
+  if (nonzero >= 0) {
+    const pairs = new Uint32Array(bytes.slice(u32Start, u32Start + nonzero * 8).buffer);
+    const index = new Uint32Array(nonzero);
+    const count = new Uint32Array(nonzero);
+    for (let k = 0; k < nonzero; k++) {
+      index[k] = pairs[2 * k];
+      count[k] = pairs[2 * k + 1];
+    }
+    envelopeCounts = new Uint32Array(0);
+    envelopeSparse = { length: header.envelopeLength, index, count };
+  } else {
+    envelopeCounts = new Uint32Array(bytes.slice(u32Start, u32Start + header.envelopeLength * 4).buffer);
+  }
   let o = 0;
   const marginCounts = f64.slice(o, o + header.marginCountsLength);
   o += header.marginCountsLength;
@@ -228,8 +280,8 @@ export function decodeAggregate(bytes: Uint8Array): TrialAggregate {
     o += s.ml;
     return { start: s.start, count: s.count, deviations, margins };
   });
-  const { marginCountsLength: _m, envelopeLength: _e, sample: _s, ...plain } = header;
-  return { ...plain, marginCounts, envelopeCounts, sample } as TrialAggregate;
+  const { marginCountsLength: _m, envelopeLength: _e, envelopeNonzero: _n, sample: _s, ...plain } = header;
+  return { ...plain, marginCounts, envelopeCounts, sample, ...(envelopeSparse ? { envelopeSparse } : {}) } as TrialAggregate;
 }
 
 function metaOf(plan: RunPlan): AggregateMeta {

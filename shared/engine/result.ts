@@ -15,7 +15,7 @@
  *   first `sensitivitySampleSize` trials by index (default 5000), so it does not depend on chunking.
  * Numbers that are not finite are reported as null so the result is valid JSON.
  */
-import type { TrialAggregate } from "./aggregate";
+import { denseEnvelope, type TrialAggregate } from "./aggregate";
 import { exactSumValue } from "./stats/exact-sum";
 import { histogramQuantile, toHistogram, type Histogram } from "./stats/histogram";
 import { clopperPearsonInterval, wilsonInterval } from "./stats/intervals";
@@ -134,6 +134,7 @@ function envelopesOf(agg: TrialAggregate): RunResult["envelopes"] {
   const F = m.freqs.length;
   const bins = m.envelopeBins;
   const stride = bins + 2;
+  const envelope = denseEnvelope(agg);
   const series: EnvelopeSeries[] = m.pairs.map((metric, k) => {
     const nominal = m.nominalDb.slice(k * F, (k + 1) * F);
     const values: (number | null)[][] = ENVELOPE_PERCENTILES.map(() => new Array<number | null>(F).fill(null));
@@ -141,7 +142,7 @@ function envelopesOf(agg: TrialAggregate): RunResult["envelopes"] {
     for (let f = 0; f < F; f++) {
       const lo = nominal[f] - m.envelopeSpanDb;
       ENVELOPE_PERCENTILES.forEach((pct, q) => {
-        const res = histogramQuantile(lo, m.envelopeBinDb, bins, agg.envelopeCounts, (k * F + f) * stride, pct / 100);
+        const res = histogramQuantile(lo, m.envelopeBinDb, bins, envelope, (k * F + f) * stride, pct / 100);
         if (res.clipped) clipped++;
         values[q][f] = finite(res.value);
       });
