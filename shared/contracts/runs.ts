@@ -110,6 +110,13 @@ export const runProgressSchema = z.strictObject({
 });
 export type RunProgress = z.infer<typeof runProgressSchema>;
 
+/** The SSE `end` event: the run's final state, or "signed-out" when the session ended while listening. */
+export const runStreamEndSchema = z.strictObject({ state: z.union([z.enum(RUN_STATES), z.literal("signed-out")]) });
+export type RunStreamEnd = z.infer<typeof runStreamEndSchema>;
+
+/** GET /api/runs/:id/events: each event name and the JSON its `data:` line carries. */
+export const RUN_STREAM_EVENTS = { progress: runProgressSchema, end: runStreamEndSchema } as const;
+
 /** GET /api/runs: one page of run history. */
 export const runPageSchema = z.strictObject({ runs: z.array(runSummarySchema), total: z.number().int(), page: z.number().int(), pageSize: z.number().int() });
 export type RunPage = z.infer<typeof runPageSchema>;

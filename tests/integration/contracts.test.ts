@@ -3,7 +3,7 @@ import type { z } from "zod";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { User } from "../../server/entities";
 import type { RouteInfo } from "../../server/routes/api-router";
-import { CONTRACTS, NON_JSON_ENDPOINTS, type EndpointContract } from "../../shared/contracts";
+import { CONTRACTS, NON_JSON_ENDPOINTS, RUN_STREAM_EVENTS, type EndpointContract } from "../../shared/contracts";
 import { fieldPath } from "../../shared/schemas/field-path";
 import { ROLES } from "../../shared/roles";
 import { createTestContext, ORIGIN, type TestContext } from "../helpers/test-context";
@@ -123,6 +123,31 @@ describe("API contracts", () => {
     const design = await get(`/api/designs/${f.design.id}`);
     expect(design.body.design.latestYield).not.toBeNull();
     expect(mismatches(CONTRACTS["get /designs/:id"].response, design.body)).toEqual([]);
+  });
+
+  it("streams progress and end events whose data parse with the stream's contract", async () => {
+    const f = await makeRunFixture(t, everyone, { name: "Contract stream" });
+    const cookie = cookieOf(await t.ctx.sessions.create(everyone.id));
+    const launched = await request(t.app).post("/api/runs").set("Origin", ORIGIN).set("Cookie", cookie).send({ revisionId: f.revision.id, limitSetId: f.limitSet.id, trials: 20_000, seed: 5 });
+    expect(launched.status, JSON.stringify(launched.body)).toBe(201);
+    const res = await request(t.app)
+      .get(`/api/runs/${launched.body.run.id}/events`)
+      .set("Cookie", cookie)
+      .buffer(true)
+      .parse((r, cb) => {
+        let text = "";
+        r.setEncoding("utf8");
+        r.on("data", (c: string) => (text += c));
+        r.on("end", () => cb(null, text));
+      });
+    const events = String(res.body).split("\n\n").filter((b) => b.trim()).map((block) => ({
+      event: /^event: (.*)$/m.exec(block)?.[1] ?? "(none)",
+      data: JSON.parse(/^data: (.*)$/m.exec(block)?.[1] ?? "null") as unknown,
+    }));
+    const streams: Record<string, z.ZodType> = RUN_STREAM_EVENTS;
+    expect(events.flatMap((e) => (streams[e.event] ? mismatches(streams[e.event], e.data).map((m) => `${e.event}: ${m}`) : [`unknown event ${e.event}`]))).toEqual([]);
+    expect(events.at(-1)).toEqual({ event: "end", data: { state: "done" } });
+    expect(events.some((e) => e.event === "progress")).toBe(true);
   });
 
   it("fails an answer that leaves out a field, adds one or changes its type", () => {
