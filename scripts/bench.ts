@@ -14,10 +14,17 @@
  *     (workers/queue-worker.ts, 1 trial thread each; fastest of 2 runs), as ratios to 1 process, against the
  *     embedded 1-thread pool (the queue's overhead), and whether all results are byte-identical (toStoredResult).
  *     On a 2-core machine this shows overhead and scaling up to the core count only, not what more hosts would give.
+ *  4. the `lotwise` command line's start: `--help` and a small `run` through the bundled CLI (bin/lotwise.js on
+ *     dist/cli, scripts/build-cli.mjs) against the same commands run from the TypeScript sources through tsx (as
+ *     `node --import tsx server/cli/main.ts` and as the `tsx` command, how `npm run lotwise` started before the
+ *     bundle), wall-clock per process, median of a few starts, and whether the outputs are identical.
  * Kept under ~6 minutes on 2 cores: the memory runs use a coarser grid (printed).
- * LOTWISE_BENCH_ONLY=distributed runs section 3 alone (a quick check of distributed mode).
+ * LOTWISE_BENCH_ONLY=distributed runs section 3 alone (a quick check of distributed mode), LOTWISE_BENCH_ONLY=cli
+ * section 4 alone.
  */
-import { rmSync } from "node:fs";
+import { spawnSync } from "node:child_process";
+import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { join } from "node:path";
 import os from "node:os";
 import { performance } from "node:perf_hooks";
 import type { Netlist } from "../shared/engine/netlist";
@@ -62,6 +69,7 @@ const fmtRate = (x: number) => `${(x / 1e6).toFixed(2)} M/s`;
 const mb = (x: number) => `${(x / 2 ** 20).toFixed(0)} MB`;
 
 const onlyDistributed = process.env.LOTWISE_BENCH_ONLY === "distributed";
+const onlyCli = process.env.LOTWISE_BENCH_ONLY === "cli";
 
 async function main(): Promise<void> {
   const t0 = performance.now();
@@ -69,6 +77,10 @@ async function main(): Promise<void> {
   console.log(`Lotwise bench — node ${process.version}, ${os.cpus()[0]?.model ?? "cpu"}, ${os.availableParallelism()} cores, load average ${load} (1/5/15 min)`);
   console.log("Rates are point-solves per second: one point = every S_ij and group delay at one frequency of one trial.");
   console.log("Worker scaling is only meaningful when the load average is below the core count.");
+  if (onlyCli) {
+    benchCliStart();
+    return;
+  }
   const pool1 = createTrialPool({ size: 1 });
   const pool2 = createTrialPool({ size: 2 });
   try {
@@ -83,6 +95,7 @@ async function main(): Promise<void> {
       await benchMemory(pool2);
     }
     await benchDistributed(pool1);
+    if (!onlyDistributed) benchCliStart();
   } finally {
     await Promise.all([pool1.close(), pool2.close()]);
   }
@@ -248,6 +261,65 @@ async function benchDistributed(pool1: ReturnType<typeof createTrialPool>): Prom
  * SIGTERM (the worker finishes running chunks and exits), SIGKILL after 15 s. Not the helper's stop(): its 15 s
  * timer stays pending after the exit and would hold this process open that long at the end of the bench.
  */
+/**
+ * Section 4: wall-clock time of whole `lotwise` processes, bundled against tsx. Each start is a fresh process (no
+ * warm module cache but the operating system's file cache); the bundle is brought up to date before timing, so the
+ * bundled figures include the shim's staleness check but not a build.
+ */
+function benchCliStart(): void {
+  const root = join(import.meta.dirname, "..");
+  console.log("\n4. lotwise CLI start (wall clock of one process, median of the starts shown; 'same' = identical stdout)");
+  const built = spawnSync(process.execPath, [join(root, "scripts/build-cli.mjs")], { cwd: root, encoding: "utf8" });
+  if (built.status !== 0) {
+    console.log(`   the CLI bundle did not build: ${built.stderr.trim().split("\n").slice(-3).join(" / ")}`);
+    return;
+  }
+  const dir = mkdtempSync(join(os.tmpdir(), "lotwise-bench-cli-"));
+  try {
+    const net = join(dir, "net.json");
+    const lim = join(dir, "lim.json");
+    writeFileSync(net, JSON.stringify(withTolerance(synthesizeLadder({ family: "butterworth", type: "lowpass", order: 3, cutoff: 100e6 }), 0.05)));
+    writeFileSync(lim, JSON.stringify({ rules: [{ metric: "s21_db", from: 1e6, to: 70e6, min: -0.8 }, { metric: "s21_db", from: 200e6, to: 1e9, max: -17.5 }] }));
+    const ways: { name: string; argv: string[]; starts: number }[] = [
+      { name: "bundled (bin/lotwise.js)", argv: [process.execPath, join(root, "bin/lotwise.js")], starts: 7 },
+      { name: "tsx (node --import tsx server/cli/main.ts)", argv: [process.execPath, "--import", "tsx", join(root, "server/cli/main.ts")], starts: 3 },
+      { name: "tsx command (tsx server/cli/main.ts)", argv: [join(root, "node_modules/.bin/tsx"), join(root, "server/cli/main.ts")], starts: 3 },
+    ];
+    const commands: { name: string; args: string[] }[] = [
+      { name: "--help", args: ["--help"] },
+      { name: "run, 300 trials, 1 worker", args: ["run", net, "--limits", lim, "--trials", "300", "--seed", "7", "--workers", "1", "--json"] },
+    ];
+    const bare: number[] = [];
+    for (let i = 0; i < 5; i++) {
+      const t0 = performance.now();
+      spawnSync(process.execPath, ["-e", "0"], { cwd: root });
+      bare.push(performance.now() - t0);
+    }
+    bare.sort((a, b) => a - b);
+    console.log(`   ${"(Node alone: node -e 0)".padEnd(71)} ${(bare[2] / 1000).toFixed(3)} s (min ${(bare[0] / 1000).toFixed(3)}, 5 starts)`);
+    for (const command of commands) {
+      let reference: string | undefined;
+      for (const way of ways) {
+        const times: number[] = [];
+        let same = true;
+        for (let i = 0; i < way.starts; i++) {
+          const t0 = performance.now();
+          const r = spawnSync(way.argv[0], [...way.argv.slice(1), ...command.args], { cwd: root, encoding: "utf8" });
+          times.push(performance.now() - t0);
+          if (r.status !== 0) throw new Error(`${way.name} ${command.name} exited ${r.status}: ${r.stderr}`);
+          reference ??= r.stdout;
+          same &&= r.stdout === reference;
+        }
+        times.sort((a, b) => a - b);
+        const median = times[Math.floor(times.length / 2)];
+        console.log(`   ${command.name.padEnd(26)} ${way.name.padEnd(44)} ${(median / 1000).toFixed(3)} s (min ${(times[0] / 1000).toFixed(3)}, ${way.starts} starts)${same ? ", same" : ", OUTPUT DIFFERS"}`);
+      }
+    }
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
 async function stopWorker(w: WorkerProcess): Promise<void> {
   if (w.child.exitCode !== null || w.child.signalCode !== null) return;
   w.child.kill("SIGTERM");

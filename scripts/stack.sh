@@ -13,6 +13,10 @@ if [ ! -x node_modules/.bin/tsx ] || [ package-lock.json -nt node_modules/.packa
   npm ci --no-audit --no-fund
 fi
 
+# The lotwise command line runs from a bundle built ahead of time (dist/cli, scripts/build-cli.mjs); this builds it
+# only when it is missing or older than its sources, and bin/lotwise.js checks again before each start.
+node scripts/build-cli.mjs >/dev/null || echo "lotwise: the CLI bundle did not build (bin/lotwise.js will try again)" >&2
+
 if [ "$mode" = "worker" ]; then
   # A worker process needs only Node.js and Redis somewhere on the network.
   exec node_modules/.bin/tsx workers/queue-worker.ts

@@ -1,5 +1,5 @@
 import { spawn } from "node:child_process";
-import { mkdtempSync, writeFileSync } from "node:fs";
+import { existsSync, mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { describe, expect, it, vi } from "vitest";
@@ -13,7 +13,7 @@ const file = (name: string, data: unknown) => {
   return p;
 };
 
-/** 3rd-order Butterworth pi low-pass, 50 ohm, fc = 100 MHz (REFERENCES.md §3 [C]). */
+/** 3rd-order Butterworth pi low-pass, 50 ohm, fc = 100 MHz (docs/references.md §3 [C]). */
 const net = file("net.json", {
   ports: [{ name: "in", node: "n1", z0: 50 }, { name: "out", node: "n2", z0: 50 }],
   parts: [
@@ -24,6 +24,7 @@ const net = file("net.json", {
 });
 const lim = file("lim.json", { rules: [{ metric: "s21_db", from: 1e6, to: 70e6, min: -0.8 }, { metric: "s21_db", from: 200e6, to: 1e9, max: -17.5 }] });
 
+/** Spawns the CLI from its TypeScript source through tsx, or with `bin` through bin/lotwise.js (the bundle in dist/cli). */
 function cli(args: string[], opts: { bin?: boolean; stdin?: string } = {}): Promise<{ code: number | null; stdout: string; stderr: string }> {
   const argv = opts.bin ? [join(root, "bin/lotwise.js"), ...args] : ["--import", "tsx", join(root, "server/cli/main.ts"), ...args];
   return new Promise((resolve) => {
@@ -45,7 +46,7 @@ describe("lotwise CLI", { timeout: 180_000 }, () => {
     const out = JSON.parse(r.stdout);
     expect(Object.keys(out)).toEqual(["freq", "s21_db", "s11_db", "s21_deg", "s11_deg", "gd21_ns"]);
     expect(out.freq.length).toBe(31);
-    // [C] Butterworth n = 3 at 1 GHz = 10 fc: IL = 10·log10(1 + 10^6) = 60.0 dB (REFERENCES.md §2 formula)
+    // [C] Butterworth n = 3 at 1 GHz = 10 fc: IL = 10·log10(1 + 10^6) = 60.0 dB (docs/references.md §2 formula)
     expect(out.s21_db[30]).toBeCloseTo(-60, 2);
   });
 
@@ -73,14 +74,14 @@ describe("lotwise CLI", { timeout: 180_000 }, () => {
     expect(synth.code).toBe(0);
     const ladder = JSON.parse(synth.stdout);
     expect(ladder.parts.length).toBe(5);
-    // Pozar Example 8.3 (REFERENCES.md §3 [S values, example no. M]): C1 = 0.984 pF for 5th-order maximally flat, 2 GHz, 50 ohm, shunt first
+    // Pozar Example 8.3 (docs/references.md §3 [S values, example no. M]): C1 = 0.984 pF for 5th-order maximally flat, 2 GHz, 50 ohm, shunt first
     expect(ladder.parts[0].value * 1e12).toBeCloseTo(0.984, 3);
     // [C] Butterworth g1 = 2·sin(π/(2n)) (closed form), C1 = g1/(2π·f·R0)
     expect(ladder.parts[0].value).toBeCloseTo((2 * Math.sin(Math.PI / 10)) / (2 * Math.PI * 2e9 * 50), 20);
     expect(match.code).toBe(0);
     expect(JSON.parse(match.stdout).ports[0].z0).toBe(50);
     expect(snap.code).toBe(0);
-    // IEC 60063 E24 (REFERENCES.md §5): 4.7 is the nearest of 4.3/4.7/5.1 to 4.83 → 4.7k, error (4700 − 4830)/4830
+    // IEC 60063 E24 (docs/references.md §5): 4.7 is the nearest of 4.3/4.7/5.1 to 4.83 → 4.7k, error (4700 − 4830)/4830
     const s = JSON.parse(snap.stdout);
     expect(s.value).toBeCloseTo(4700, 9);
     expect(s.error).toBeCloseTo((4700 - 4830) / 4830, 12);
@@ -102,6 +103,22 @@ describe("lotwise CLI", { timeout: 180_000 }, () => {
     expect(engine.stderr).toMatch(/^lotwise run: limits rules\[0\]\.min: needs min and\/or max\n$/);
     expect(usage.code).toBe(2);
     expect(usage.stderr).toMatch(/^lotwise sweep: sweep needs --from, --to and --points \(see lotwise sweep --help\)\n$/);
+  });
+
+  it("the bundled CLI (bin/lotwise.js on dist/cli) prints byte for byte what the TypeScript source prints", async () => {
+    // The whole run result (--full) on 2 worker threads, so the bundled trial worker is used and compared too.
+    const run = ["run", net, "--limits", lim, "--trials", "2000", "--seed", "11", "--workers", "2", "--chunk-size", "300", "--json", "--full"];
+    const sweep = ["sweep", net, "--from", "1M", "--to", "1G", "--points", "21", "--json"];
+    const bundledRun = await cli(run, { bin: true }); // builds dist/cli first when it is missing or stale
+    expect(bundledRun.stderr).toBe("");
+    expect(bundledRun.code).toBe(0);
+    expect(existsSync(join(root, "dist/cli/server/cli/main.js"))).toBe(true);
+    expect(existsSync(join(root, "dist/cli/workers/trials.worker.js"))).toBe(true);
+    const [sourceRun, bundledSweep, sourceSweep] = await Promise.all([cli(run), cli(sweep, { bin: true }), cli(sweep)]);
+    expect(JSON.parse(bundledRun.stdout).trials).toBe(2000);
+    expect(bundledRun.stdout).toBe(sourceRun.stdout);
+    expect(bundledSweep.code).toBe(0);
+    expect(bundledSweep.stdout).toBe(sourceSweep.stdout);
   });
 
 });
