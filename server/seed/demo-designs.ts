@@ -1,7 +1,7 @@
 /**
  * Demo designs of Brackwater Radio Works (invented): a VHF harmonic low-pass and an IF preselector, each with a
  * limit set, plus a grade catalogue. Tolerance letters follow IEC 60062 (B ±0.1 pF, C ±0.25 pF, F ±1 %, G ±2 %,
- * J ±5 %, K ±10 %; /work/shared/REFERENCES.md §7); every price is invented.
+ * J ±5 %, K ±10 %; docs/references.md §7); every price is invented.
  */
 import { randomUUID } from "node:crypto";
 import type { DataSource } from "typeorm";

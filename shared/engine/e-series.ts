@@ -2,7 +2,7 @@
  * IEC 60063:2015 preferred-number series (E series) and snapping to them.
  *
  * E3…E24 carry their historical values, which differ from round(10^(i/N), 1 decimal) at
- * 2.7 3.0 3.3 3.6 3.9 4.3 4.7 8.2 (IEC 60063; REFERENCES.md §5). E48, E96 and E192 are
+ * 2.7 3.0 3.3 3.6 3.9 4.3 4.7 8.2 (IEC 60063; docs/references.md §5). E48, E96 and E192 are
  * round(10^(i/N), 2 decimals), half-up, with the single listed exception E192 i = 185 → 9.20
  * (the formula gives 9.19).
  */

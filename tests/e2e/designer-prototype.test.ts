@@ -46,7 +46,7 @@ describe("designer in the browser", () => {
 
     await page.getByRole("heading", { name: "Harmonic low-pass 100 MHz" }).waitFor();
     const value1 = page.getByLabel("Value, row 1");
-    await expect.poll(() => value1.inputValue()).toBe("19.67 pF"); // [C] g1 = 0.618 (Butterworth n=5) → C1 = g1/(2π·100 MHz·50 Ω) = 19.67 pF
+    await expect.poll(() => value1.inputValue()).toBe("19.67 pF"); // [C] g1 = 0.618 (Butterworth n=5) → C1 = g1/(2π·100 MHz·50 Ω) = 19.67 pF (tests/fixtures/generators/closed_form_values.py)
 
     // A bad cell is marked and blocks saving; Enter moves down the column.
     await page.getByLabel("Value, row 2").fill("12x");

@@ -32,7 +32,7 @@ describe("demo designs seed", () => {
     const design = await t.ctx.dataSource.getRepository(Design).findOneByOrFail({ name: "VHF harmonic low-pass" });
     const revision = await t.ctx.dataSource.getRepository(DesignRevision).findOneByOrFail({ designId: design.id });
     const parts = revision.netlist.parts;
-    // Ideal values from the 0.1 dB Chebyshev prototype, n = 7 (REFERENCES.md §1.2 [C]: g1 = 1.1812, g2 = 1.4228,
+    // Ideal values from the 0.1 dB Chebyshev prototype, n = 7 (tests/fixtures/generators/lowpass_prototypes.py; docs/references.md §1.2 [C]: g1 = 1.1812, g2 = 1.4228,
     // g3 = 2.0967, g4 = 1.5734), C = g/(R0·ωc), L = g·R0/ωc at 175 MHz, 50 Ω:
     // C1 = 21.48 pF → E24 22 pF, L2 = 64.70 nH → E24 62 nH (below √(62·68) = 64.93), C3 = 38.14 pF → 39 pF,
     // L4 = 71.55 nH → 75 nH (above √(68·75) = 71.41).

@@ -4,8 +4,9 @@ import type { ESeriesName } from "../../../shared/engine/netlist";
 import { EngineError } from "../../../shared/engine/errors";
 import { expectClose } from "../../helpers/expect-close";
 
-// Reference lists typed from REFERENCES.md §5 (IEC 60063:2015 values, as copied there from the
-// Wikipedia "E-series of preferred numbers" tables and the qsl.net E48/E96 copy). Not generated.
+// Reference lists typed from docs/references.md §5 (IEC 60063:2015 values, as copied there from the
+// Wikipedia "E-series of preferred numbers" tables and the qsl.net E48/E96 copy). Not generated; the [C] facts
+// below and these lists against the formula are checked by tests/fixtures/generators/e_series.py.
 const REF: Record<ESeriesName, string> = {
   E3: "1.0 2.2 4.7",
   E6: "1.0 1.5 2.2 3.3 4.7 6.8",
@@ -28,7 +29,7 @@ const REF: Record<ESeriesName, string> = {
 };
 const parse = (text: string) => text.trim().split(/\s+/).map(Number);
 
-describe("eSeriesValues (IEC 60063:2015, REFERENCES.md §5)", () => {
+describe("eSeriesValues (IEC 60063:2015, docs/references.md §5)", () => {
   for (const name of Object.keys(REF) as ESeriesName[]) {
     it(`${name} matches the published list exactly`, () => {
       const expected = parse(REF[name]);
@@ -38,14 +39,14 @@ describe("eSeriesValues (IEC 60063:2015, REFERENCES.md §5)", () => {
   }
 
   it("keeps the historical E24 values that differ from round(10^(i/24), 1)", () => {
-    // REFERENCES.md §5: 2.7 3.0 3.3 3.6 3.9 4.3 4.7 8.2 instead of 2.6 2.9 3.2 3.5 3.8 4.2 4.6 8.3
+    // docs/references.md §5: 2.7 3.0 3.3 3.6 3.9 4.3 4.7 8.2 instead of 2.6 2.9 3.2 3.5 3.8 4.2 4.6 8.3
     const e24 = eSeriesValues("E24");
     for (const v of [2.7, 3.0, 3.3, 3.6, 3.9, 4.3, 4.7, 8.2]) expect(e24).toContain(v);
     for (const v of [2.6, 2.9, 3.2, 3.5, 3.8, 4.2, 4.6, 8.3]) expect(e24).not.toContain(v);
   });
 
   it("lists 9.20 (not the formula's 9.19) at E192 index 185", () => {
-    // REFERENCES.md §5: the only exception to round(10^(i/N), 2) in E48/E96/E192
+    // docs/references.md §5: the only exception to round(10^(i/N), 2) in E48/E96/E192
     expect(eSeriesValues("E192")[185]).toBe(9.2);
     expect(Math.round(100 * 10 ** (185 / 192)) / 100).toBe(9.19); // [C] the formula value
   });
@@ -56,7 +57,7 @@ describe("snapToSeries", () => {
     // [input, series, expected snapped value, source]
     [9.6, "E24", 10, "[C] log distance: ln(10/9.6) = 0.041 < ln(9.6/9.1) = 0.053 → next decade"],
     [0.000483, "E12", 0.00047, "[C] ln(4.83/4.7) = 0.027 < ln(5.6/4.83) = 0.148"],
-    [2.2, "E96", 2.21, "REFERENCES.md §5: 2.2 is not in E96, nearest 2.21"],
+    [2.2, "E96", 2.21, "docs/references.md §5: 2.2 is not in E96, nearest 2.21"],
     [4.7e-9, "E6", 4.7e-9, "exact member, E6 list"],
     [1.0e-12, "E3", 1.0e-12, "exact member at a decade start"],
     [0.99e-6, "E12", 1.0e-6, "[C] just below a decade: 1.0 of the next decade is nearest"],

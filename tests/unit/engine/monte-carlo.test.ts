@@ -25,7 +25,7 @@ describe("Monte Carlo yield with an analytic answer", () => {
   it("series R, 10 % normal (3σ, truncated): yield = P(R ≤ 10.5 Ω) within its 99 % interval", async () => {
     // |S21| dB = 20·log10(100/(100 + R)) falls with R, so "s21_db ≥ 20·log10(100/110.5)" passes iff R ≤ 10.5 Ω.
     // R = 10·(1 + 0.1·z/3), z ~ N(0,1) truncated to |z| ≤ 3  ⇒  R ≤ 10.5 ⇔ z ≤ 1.5.
-    // [C] p = (Φ(1.5) − Φ(−3)) / (Φ(3) − Φ(−3)) with jstat's Φ (≈ 0.9344)
+    // [C] p = (Φ(1.5) − Φ(−3)) / (Φ(3) − Φ(−3)) with jstat's Φ (≈ 0.9344; tests/fixtures/generators/closed_form_values.py)
     const p = (jStat.normal.cdf(1.5, 0, 1) - jStat.normal.cdf(-3, 0, 1)) / (jStat.normal.cdf(3, 0, 1) - jStat.normal.cdf(-3, 0, 1));
     const limit = 20 * Math.log10(100 / 110.5);
     const res = await runMonteCarlo(seriesR(0.1), { rules: [{ metric: "s21_db", from: 1e6, to: 1e7, min: limit }] }, { trials: 4000, seed: 2024, sweep: { from: 1e6, to: 1e7, points: 5 } });
@@ -101,7 +101,7 @@ describe("rules on a ladder, corners and replay", () => {
 
   it("ripple margin is max − peak-to-peak of |S21| over the band", () => {
     const agg = runTrialChunk({ netlist: butterworth3(0), limits: { rules: [{ metric: "ripple_db", from: 1e6, to: 70e6, max: 1 }] }, options: { trials: 1, seed: 1 }, start: 0, count: 1 });
-    // [C] Butterworth n = 3: IL = 10·log10(1 + (f/fc)^6) (REFERENCES.md §2), monotone; pp = IL(70 MHz) − IL(1 MHz)
+    // [C] Butterworth n = 3: IL = 10·log10(1 + (f/fc)^6) (docs/references.md §2), monotone; pp = IL(70 MHz) − IL(1 MHz)
     const pp = 10 * Math.log10(1 + 0.7 ** 6) - 10 * Math.log10(1 + 0.01 ** 6);
     expect(agg.meta.nominalMargins[0]).toBeCloseTo(1 - pp, 3); // element values are given to 5 digits
   });

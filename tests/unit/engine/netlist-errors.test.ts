@@ -147,7 +147,7 @@ describe("SINGULAR_MATRIX", () => {
     // Node t is held only by L3 ∥ C4 to ground: Y_tt = j(ωC − 1/(ωL)) vanishes at f0 = 1/(2π√(LC))
     // and row t is otherwise empty, so Y is singular there (up to rounding of ωC − 1/(ωL)).
     const L = 100e-9;
-    const C = 25.330295910584444e-12; // [C] = 1/((2π·100 MHz)²·L), so f0 = 100 MHz
+    const C = 25.330295910584444e-12; // [C] = 1/((2π·100 MHz)²·L), so f0 = 100 MHz (tests/fixtures/generators/closed_form_values.py)
     const net: Netlist = {
       ports: [
         { name: "in", node: "a", z0: 50 },

@@ -74,7 +74,7 @@ describe("tolerance sampling", () => {
   });
 
   it("absolute tolerances: ±0.25 pF on 2 pF", () => {
-    // IEC 60062 letter C = ±0.25 pF (REFERENCES.md §7)
+    // IEC 60062 letter C = ±0.25 pF (docs/references.md §7)
     const net = netOf([{ value: 2e-12, toleranceAbs: 0.25e-12, tolerance: 0.5 }]);
     const [x] = draw(net, 20_000);
     const absDev = x.map((d) => d * 2e-12);

@@ -164,9 +164,9 @@ describe("closed-form two-ports", () => {
     expectClose(zin.im[0], 0, { atol: 1e-9, label: "Im Zin" });
   });
 
-  it("7th-order Butterworth low-pass matches IL = 10·log10(1 + (ω/ωc)^14) (REFERENCES.md §2)", () => {
+  it("7th-order Butterworth low-pass matches IL = 10·log10(1 + (ω/ωc)^14) (docs/references.md §2)", () => {
     // Prototype g_k = 2·sin((2k − 1)π/(2n)) (Butterworth, equal terminations; Pozar 4th ed. sec. 8.3),
-    // shunt C first, scaled to 50 ohm and fc = 100 MHz (REFERENCES.md §3 table).
+    // shunt C first, scaled to 50 ohm and fc = 100 MHz (docs/references.md §3 table).
     const n = 7, fc = 1e8, R0 = 50, wc = 2 * Math.PI * fc;
     const parts: Part[] = [];
     let node = 1;
@@ -177,7 +177,7 @@ describe("closed-form two-ports", () => {
     }
     const b = sweep(twoPort(parts, 50, 50, "n1", `n${node}`), [1.5 * fc, 2 * fc, 3 * fc]);
     const il = sParamDb(b, 1, 0).map((x) => -x);
-    // REFERENCES.md §2 [C]: n = 7 IL at ω/ωc = 1.5 / 2 / 3 = 24.668 / 42.144 / 66.797 dB (3 decimals printed)
+    // docs/references.md §2 [C] (tests/fixtures/generators/closed_form_values.py): n = 7 IL at ω/ωc = 1.5 / 2 / 3 = 24.668 / 42.144 / 66.797 dB (3 decimals printed)
     expectClose(il[0], 24.668, { atol: 6e-4, label: "IL at 1.5 fc" });
     expectClose(il[1], 42.144, { atol: 6e-4, label: "IL at 2 fc" });
     expectClose(il[2], 66.797, { atol: 6e-4, label: "IL at 3 fc" });

@@ -48,7 +48,7 @@ describe("designLMatch", () => {
         expect(series).toHaveLength(1);
         expect(series[0].nodes).toEqual(["n1", "n2"]);
         const highNode = sourceR > loadR ? "n1" : "n2";
-        expect(shunt[0].nodes).toEqual([highNode, "gnd"]); // Bowick ch. 4 [M] / REFERENCES §4: shunt across the high-R side
+        expect(shunt[0].nodes).toEqual([highNode, "gnd"]); // Bowick ch. 4 [M] / docs/references.md §4: shunt across the high-R side
         expect(shunt[0].kind).toBe(form === "lowpass" ? "C" : "L");
         expect(series[0].kind).toBe(form === "lowpass" ? "L" : "C");
         expect(net.parts[0]).toBe(sourceR > loadR ? shunt[0] : series[0]); // refs numbered from the source
@@ -59,8 +59,8 @@ describe("designLMatch", () => {
     }
   }
 
-  it("50 → 200 ohm at 100 MHz: Q = √3 values (REFERENCES §4)", () => {
-    // [C] from §4: Q = √(200/50 − 1) = 1.7321, Xs = 86.603 ohm, Xp = 115.47 ohm ⇒ L = 137.83 nH, C = 13.783 pF
+  it("50 → 200 ohm at 100 MHz: Q = √3 values (docs/references.md §4)", () => {
+    // [C] from docs/references.md §4 (tests/fixtures/generators/closed_form_values.py): Q = √(200/50 − 1) = 1.7321, Xs = 86.603 ohm, Xp = 115.47 ohm ⇒ L = 137.83 nH, C = 13.783 pF
     const lp = designLMatch({ sourceR: 50, loadR: 200, freq: 100e6 });
     expect(lp.parts[0].value).toBeCloseTo(137.83e-9, 11);
     expect(Math.abs(lp.parts[1].value - 13.783e-12)).toBeLessThan(0.5e-15); // half a unit of the printed 0.001 pF

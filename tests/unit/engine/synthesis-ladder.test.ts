@@ -10,12 +10,12 @@ const expectEngineError = (fn: () => unknown, message: RegExp, path: string) => 
 
 const DB3 = 10 * Math.log10(2); // 3.0103 dB: half power
 
-/** Butterworth insertion loss, Pozar 4th ed. sec. 8.3 (REFERENCES §2): 10 log10(1 + x^(2n)), x = ω/ωc. */
+/** Butterworth insertion loss, Pozar 4th ed. sec. 8.3 (docs/references.md §2): 10 log10(1 + x^(2n)), x = ω/ωc. */
 function ilButterworth(n: number, x: number): number {
   return 10 * Math.log10(1 + x ** (2 * n));
 }
 
-/** Chebyshev I insertion loss, Pozar 4th ed. sec. 8.3 (REFERENCES §2): 10 log10(1 + ε² Tn²(x)). */
+/** Chebyshev I insertion loss, Pozar 4th ed. sec. 8.3 (docs/references.md §2): 10 log10(1 + ε² Tn²(x)). */
 function ilChebyshev(n: number, lar: number, x: number): number {
   const eps2 = 10 ** (lar / 10) - 1;
   const t = x <= 1 ? Math.cos(n * Math.acos(x)) : Math.cosh(n * Math.acosh(x));
@@ -58,13 +58,13 @@ describe("worked element values", () => {
   it("Pozar Example 8.3: 2 GHz, 50 ohm, n=5 maximally flat, shunt-C first", () => {
     const net = synthesizeLadder({ family: "butterworth", type: "lowpass", order: 5, cutoff: 2e9, z0: 50 });
     const p = byRef(net);
-    // Pozar 4th ed. Example 8.3 (REFERENCES.md §3 [S values, example no. M], 3 decimals): C1 = C5 = 0.984 pF, L2 = L4 = 6.438 nH, C3 = 3.183 pF
+    // Pozar 4th ed. Example 8.3 (docs/references.md §3 [S values, example no. M], 3 decimals): C1 = C5 = 0.984 pF, L2 = L4 = 6.438 nH, C3 = 3.183 pF
     expect(Math.abs(p.C1.value - 0.984e-12)).toBeLessThan(5e-16);
     expect(Math.abs(p.C5.value - 0.984e-12)).toBeLessThan(5e-16);
     expect(Math.abs(p.L2.value - 6.438e-9)).toBeLessThan(5e-13);
     expect(Math.abs(p.L4.value - 6.438e-9)).toBeLessThan(5e-13);
     expect(Math.abs(p.C3.value - 3.183e-12)).toBeLessThan(5e-16);
-    // REFERENCES §3 [C]: 0.98358 pF, 6.43782 nH, 3.18310 pF. The first two follow from the 4-decimal table
+    // docs/references.md §3 [C] (tests/fixtures/generators/closed_form_values.py): 0.98358 pF, 6.43782 nH, 3.18310 pF. The first two follow from the 4-decimal table
     // g = 0.618, 1.618; with the exact g1 = 2 sin(π/10) = 0.618034 they move by 5.5e-5 relative, hence 1e-4.
     expectRel(p.C1.value, 0.98358e-12, 1e-4, "C1");
     expectRel(p.L2.value, 6.43782e-9, 1e-4, "L2");
@@ -87,12 +87,12 @@ describe("worked element values", () => {
     expect(net.parts.every((x) => x.tolerance === undefined)).toBe(true);
   });
 
-  it("3rd-order Butterworth, 50 ohm, 100 MHz: pi, T and high-pass (REFERENCES §3)", () => {
+  it("3rd-order Butterworth, 50 ohm, 100 MHz: pi, T and high-pass (docs/references.md §3)", () => {
     const base = { family: "butterworth", order: 3, cutoff: 100e6, z0: 50 } as const;
     const pi = synthesizeLadder({ ...base, type: "lowpass" });
     const tee = synthesizeLadder({ ...base, type: "lowpass", first: "series" });
     const hp = synthesizeLadder({ ...base, type: "highpass" });
-    // REFERENCES §3 [C], 5 significant digits: pi 31.831 pF, 159.155 nH, 31.831 pF
+    // docs/references.md §3 [C] (tests/fixtures/generators/closed_form_values.py), 5 significant digits: pi 31.831 pF, 159.155 nH, 31.831 pF
     const rows: [Netlist, string[], number[]][] = [
       [pi, ["C1", "L2", "C3"], [31.831e-12, 159.155e-9, 31.831e-12]],
       // T: 79.577 nH, 63.662 pF, 79.577 nH
@@ -110,7 +110,7 @@ describe("worked element values", () => {
     }
     expect(hp.parts[0].nodes).toEqual(["n1", "gnd"]); // shunt L
     expect(tee.parts[0].nodes).toEqual(["n1", "n2"]); // series L first
-    // IL(200 MHz) = 18.129 dB (REFERENCES §3 [C]; a course note quotes 18.13 dB [S]), for pi and T alike
+    // IL(200 MHz) = 18.129 dB (docs/references.md §3 [C]; a course note quotes 18.13 dB [S]), for pi and T alike
     expectDb(insertionLossDb(pi, [200e6]), [18.129], 5e-4, "pi");
     expectDb(insertionLossDb(tee, [200e6]), [18.129], 5e-4, "T");
     expectDb(insertionLossDb(hp, [50e6]), [18.129], 5e-4, "high-pass at fc/2");
@@ -118,7 +118,7 @@ describe("worked element values", () => {
 });
 
 describe("low-pass and high-pass ladders against the closed-form insertion loss", () => {
-  // REFERENCES §2 [C]: Butterworth IL at ω/ωc = 1.5 / 2 / 3 (3 decimals)
+  // docs/references.md §2 [C]: Butterworth IL at ω/ωc = 1.5 / 2 / 3 (3 decimals; tests/fixtures/generators/closed_form_values.py)
   const printed: Record<number, number[]> = {
     3: [10.931, 18.129, 28.633],
     4: [14.254, 24.099, 38.17],
@@ -126,7 +126,7 @@ describe("low-pass and high-pass ladders against the closed-form insertion loss"
     7: [24.668, 42.144, 66.797],
   };
   for (const [n, row] of Object.entries(printed)) {
-    it(`Butterworth n=${n} at 1.5/2/3 ωc equals REFERENCES §2`, () => {
+    it(`Butterworth n=${n} at 1.5/2/3 ωc equals docs/references.md §2`, () => {
       for (const first of ["shunt", "series"] as const) {
         const lp = synthesizeLadder({ family: "butterworth", type: "lowpass", order: Number(n), cutoff: 1e9, first });
         expectDb(insertionLossDb(lp, [1.5e9, 2e9, 3e9]), row, 5e-4, `lp n=${n} ${first}`);
@@ -169,7 +169,7 @@ describe("low-pass and high-pass ladders against the closed-form insertion loss"
     expect(Math.abs(a.ports[1].z0 - 50 / g5)).toBeLessThan(50 / g5 * 1e-4);
     expect(Math.abs(b.ports[1].z0 - 50 * g5)).toBeLessThan(50 * g5 * 1e-4);
     expect(a.ports[0].z0).toBe(50);
-    // IL at DC = ripple for even n (REFERENCES §1.2): the mismatch is the whole loss
+    // IL at DC = ripple for even n (docs/references.md §1.2): the mismatch is the whole loss
     expectDb(insertionLossDb(a, [1e3]), [0.5], 1e-6, "shunt-first DC");
     expectDb(insertionLossDb(b, [1e3]), [0.5], 1e-6, "series-first DC");
   });
@@ -302,7 +302,7 @@ describe("Bessel ladders", () => {
       for (const first of ["shunt", "series"] as const) {
         const net = synthesizeLadder({ family: "bessel", type: "lowpass", order: n, cutoff: fc, first });
         expectDb(insertionLossDb(net, [fc]), [DB3], 1e-6, `${net.name} ${first}`);
-        // delay-normalized prototype has τ(0) = 1 s at ω = 1 rad/s; scaled so its w3dB maps to 2π·fc (REFERENCES §1.3)
+        // delay-normalized prototype has τ(0) = 1 s at ω = 1 rad/s; scaled so its w3dB maps to 2π·fc (docs/references.md §1.3)
         const [tau] = groupDelay(net, [fc * 1e-4]);
         expectRel(tau, w3 / (2 * Math.PI * fc), 1e-6, `${net.name} ${first} DC delay`);
       }
@@ -320,7 +320,7 @@ describe("Bessel ladders", () => {
       const expected = besselDelay(5, x * w3); // [C] normalized τ(ω) from the polynomial, τ(0) = 1
       expectRel(measured[i] / tau0, expected, 1e-7, `τ at ${x}·w3dB`);
     });
-    // [C] besselDelay: 1 − τ(0.5·w3dB) = 6.58e-6, 1 − τ(w3dB) = 3.98e-3 — "flat within 1 %" holds easily
+    // [C] besselDelay (and tests/fixtures/generators/lowpass_prototypes.py): 1 − τ(0.5·w3dB) = 6.58e-6, 1 − τ(w3dB) = 3.98e-3 — "flat within 1 %" holds easily
     expect(1 - besselDelay(5, 0.5 * w3)).toBeCloseTo(6.58e-6, 8);
     expect(1 - besselDelay(5, w3)).toBeCloseTo(3.977e-3, 6);
     for (let i = 0; i <= 10; i++) {

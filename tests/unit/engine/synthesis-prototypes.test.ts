@@ -16,7 +16,7 @@ function expectRow(actual: readonly number[], expected: readonly number[], tol: 
 
 
 describe("Butterworth prototype", () => {
-  // Pozar, Microwave Engineering 4th ed. (2011) Table 8.3 (as in REFERENCES.md §1.1), printed to 4 decimals.
+  // Pozar, Microwave Engineering 4th ed. (2011) Table 8.3 (as in docs/references.md §1.1), printed to 4 decimals.
   // n = 6 g3 = g4: exact 1.93185, printed 1.9318 or 1.9319 by different copies; both within 6e-5.
   const table: Record<number, number[]> = {
     1: [2.0],
@@ -38,9 +38,10 @@ describe("Butterworth prototype", () => {
 });
 
 describe("Chebyshev prototype", () => {
-  // REFERENCES.md §1.2 table [C] (0.1 dB rows match MYJ Table 4.05-2, table no. [M]; 0.5 dB rows match Pozar Table 8.4
+  // Regenerated with the other [C] numbers of this file by tests/fixtures/generators/lowpass_prototypes.py.
+  // docs/references.md §1.2 table [C] (0.1 dB rows match MYJ Table 4.05-2, table no. [M]; 0.5 dB rows match Pozar Table 8.4
   // [S, published copies]).
-  // Tolerance 5e-4 against printed tables (REFERENCES §1.2 lists known printed differences).
+  // Tolerance 5e-4 against printed tables (docs/references.md §1.2 lists known printed differences).
   const rows: [number, number, number[], number][] = [
     [0.1, 1, [0.3052], 1.0],
     [0.1, 2, [0.843, 0.622], 1.3554],
@@ -55,13 +56,14 @@ describe("Chebyshev prototype", () => {
     [0.5, 4, [1.6703, 1.1926, 2.3661, 0.8419], 1.9841],
     [0.5, 5, [1.7058, 1.2296, 2.5408, 1.2296, 1.7058], 1.0],
     [0.5, 6, [1.7254, 1.2479, 2.6064, 1.3137, 2.4758, 0.8696], 1.9841],
-    // Pozar prints 1.7372 1.2583 2.6381 1.3444 here; REFERENCES §1.2 gives the exact row used below.
+    // Pozar prints 1.7372 1.2583 2.6381 1.3444 here; docs/references.md §1.2 gives the exact row used below.
     [0.5, 7, [1.7373, 1.2582, 2.6383, 1.3443, 2.6383, 1.2582, 1.7373], 1.0],
-    // 3 dB ripple, Pozar Table 8.4 (REFERENCES §1.2 [S])
+    // 3 dB ripple, Pozar Table 8.4 (docs/references.md §1.2 [S])
     [3, 3, [3.3487, 0.7117, 3.3487], 1.0],
     // n=5 g3: printed 4.5381, recursion with 40/ln 10 gives 4.53755 ([C]; with 17.37, 4.53778). With the
     // printed row the ABCD oracle gives a 3.0008 dB passband peak and 2.9980 dB at ωc, with the exact row
-    // 3.0001 dB at both ([C] tests/oracles/abcd-ladder.ts, 2001 points): the print is off by 5.5e-4, so 6e-4 here.
+    // 3.0000 dB at both ([C] ABCD analysis over 2001 points, tests/fixtures/generators/lowpass_prototypes.py): the
+    // print is off by 5.5e-4, so 6e-4 here.
     [3, 5, [3.4817, 0.7618, 4.5381, 0.7618, 3.4817], 1.0],
   ];
   for (const [lar, n, row, load] of rows) {
@@ -73,12 +75,12 @@ describe("Chebyshev prototype", () => {
   }
 
   it("0.5 dB n=7 equals the exact (not the printed) row", () => {
-    // REFERENCES §1.2 [C] exact 1.73729 1.25824 2.63829 1.34433 (5 decimals)
+    // docs/references.md §1.2 [C] exact 1.73729 1.25824 2.63829 1.34433 (5 decimals)
     expectRow(prototypeValues("chebyshev", 7, 0.5).g.slice(0, 4), [1.73729, 1.25824, 2.63829, 1.34433], 6e-6, "0.5 dB n=7");
   });
 
   it("even-order load uses 40/ln 10, not 17.37", () => {
-    // REFERENCES §1.2 [C]: exact 1 dB even-n g(n+1) = 2.65972 (printed 2.6599 with 17.37), 0.01 dB 1.10075
+    // docs/references.md §1.2 [C]: exact 1 dB even-n g(n+1) = 2.65972 (printed 2.6599 with 17.37), 0.01 dB 1.10075
     expect(Math.abs(prototypeValues("chebyshev", 4, 1).load - 2.65972)).toBeLessThan(6e-6);
     expect(Math.abs(prototypeValues("chebyshev", 6, 0.01).load - 1.10075)).toBeLessThan(6e-6);
   });
@@ -95,7 +97,7 @@ describe("Chebyshev prototype", () => {
 });
 
 describe("Bessel prototype (Darlington synthesis)", () => {
-  // REFERENCES.md §1.3 table (a) [C] Darlington synthesis; MYJ Table 4.07-1 / Pozar Table 8.5, table nos. [M].
+  // docs/references.md §1.3 table (a) [C] Darlington synthesis; MYJ Table 4.07-1 / Pozar Table 8.5, table nos. [M].
   // Delay-normalized, 4 decimals.
   const table: Record<number, { g: number[]; w3dB: number }> = {
     2: { g: [1.5774, 0.4226], w3dB: 1.3617 },
@@ -106,9 +108,9 @@ describe("Bessel prototype (Darlington synthesis)", () => {
     7: { g: [0.7677, 0.3744, 0.2944, 0.2378, 0.1778, 0.1104, 0.0375], w3dB: 2.9517 },
   };
   for (const [n, row] of Object.entries(table)) {
-    it(`n=${n} matches REFERENCES §1.3 table (a) and its w3dB`, () => {
+    it(`n=${n} matches docs/references.md §1.3 table (a) and its w3dB`, () => {
       const p = prototypeValues("bessel", Number(n));
-      expectRow(p.g, row.g, 5e-5, `bessel n=${n}`); // REFERENCES.md §1.3 [C]; 5e-5 = half a unit of the 4th decimal
+      expectRow(p.g, row.g, 5e-5, `bessel n=${n}`); // docs/references.md §1.3 [C]; 5e-5 = half a unit of the 4th decimal
       expect(Math.abs(p.w3dB - row.w3dB)).toBeLessThan(5e-5);
       expect(p.load).toBe(1);
     });

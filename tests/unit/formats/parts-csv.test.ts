@@ -5,7 +5,7 @@ import { PARTS_CSV_COLUMNS, parsePartsCsv, writePartsCsv } from "../../../shared
 import { expectFormatError } from "../../helpers/expect-errors";
 
 // Sources for expected numbers: SI prefixes per the SI Brochure (BIPM, 9th ed., Table 7);
-// tolerance letter codes per IEC 60062:2016 (REFERENCES.md §7: B ±0.1 pF, C ±0.25 pF, D ±0.5 pF,
+// tolerance letter codes per IEC 60062:2016 (docs/references.md §7: B ±0.1 pF, C ±0.25 pF, D ±0.5 pF,
 // F ±1 %, G ±2 %, J ±5 %, K ±10 %, M ±20 %; B/C/D also ±0.1/0.25/0.5 % on resistors); CSV quoting
 // per RFC 4180 §2 (fields with commas, quotes or line breaks in double quotes, a quote doubled).
 
@@ -89,7 +89,7 @@ describe("parsePartsCsv: columns, cells and CSV syntax", () => {
     expect(parsePartsCsv(one("tolerance", code, "R9,R,a,b,100")).parts[0].tolerance).toBe(tol);
   });
 
-  it("B/C/D on a capacitor above 10 pF is read as pF with a warning (IEC 60062 caveat, REFERENCES §7)", () => {
+  it("B/C/D on a capacitor above 10 pF is read as pF with a warning (IEC 60062 caveat, docs/references.md §7)", () => {
     const { parts, warnings } = parsePartsCsv(one("tolerance", "C", "C9,C,a,gnd,100p"));
     expect(parts[0].toleranceAbs).toBe(0.25e-12);
     expect(warnings).toEqual(["line 2: tolerance: letter code C read as ±0.25 pF (IEC 60062); on a 100 pF capacitor it may have meant ±0.25 %"]);

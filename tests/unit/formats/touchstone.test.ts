@@ -5,7 +5,7 @@ import { expectClose, expectComplexClose } from "../../helpers/expect-close";
 import { expectFormatError } from "../../helpers/expect-errors";
 
 // Format rules under test: Touchstone File Specification Rev 1.1 and Version 2.0 (IBIS Open Forum),
-// as summarized in shared/REFERENCES.md §8 [S]: option-line defaults GHz / S / MA / R 50, tokens in
+// as summarized in docs/references.md §8 [S]: option-line defaults GHz / S / MA / R 50, tokens in
 // any order, case-insensitive, `!` comments, v1 two-port order N11 N21 N12 N22, v2 keywords.
 
 const FIXTURES = new URL("../../fixtures/formats/", import.meta.url);
@@ -87,7 +87,7 @@ describe("fixtures: one response in every format, unit, version and data order",
 
 describe("option line", () => {
   it("a bare # gives GHz, S, MA, R 50", () => {
-    // Touchstone 1.1 defaults (REFERENCES §8): 1 → 1 GHz; 0.5 ∠ 90° → 0.5j; R 50
+    // Touchstone 1.1 defaults (docs/references.md §8): 1 → 1 GHz; 0.5 ∠ 90° → 0.5j; R 50
     const d = parseTouchstone("#\n1 0.5 90\n");
     expect(d.freqs[0]).toBe(1e9);
     expectComplexClose(sAt(d, 0, 0, 0), cx(0, 0.5), { atol: 1e-16 });
@@ -228,7 +228,7 @@ describe("noise data, wrapping, comments, v2 keywords", () => {
     expect(d.comments).toContain("noise data: f NFmin(dB) |Gopt| angle(Gopt) Rn/R");
   });
 
-  it("a noise block starting at the last S frequency is skipped too (≤, REFERENCES §8)", () => {
+  it("a noise block starting at the last S frequency is skipped too (≤, docs/references.md §8)", () => {
     const d = parseTouchstone("# GHz S RI\n1 0 0 1 0 1 0 0 0\n2 0 0 1 0 1 0 0 0\n2 0.8 0.2 30 0.15\n");
     expect(d.freqs.length).toBe(2);
   });

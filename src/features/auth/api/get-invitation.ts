@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { api } from "@/lib/api-client";
-import { authKeys } from "@/features/auth/api/get-me";
+import { authKeys } from "@/features/auth/api/keys";
 import type { InvitationPreview } from "@shared/contracts";
 
 export async function getInvitation(token: string): Promise<InvitationPreview> {

@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import { api, ApiError } from "@/lib/api-client";
 import type { AuthUserView as User } from "@shared/contracts";
+import { authKeys } from "@/features/auth/api/keys";
 
 /** The signed-in person, or null when nobody is signed in (401 is an answer here, not an error). */
 export async function getMe(): Promise<User | null> {
@@ -12,12 +13,6 @@ export async function getMe(): Promise<User | null> {
     throw error;
   }
 }
-
-/** Query keys of the session and what a visitor reads before signing in (the auth feature owns them). */
-export const authKeys = {
-  me: ["auth", "me"] as const,
-  invitation: (token: string) => ["invitation-preview", token] as const,
-};
 
 export function getMeQueryOptions() {
   return queryOptions({

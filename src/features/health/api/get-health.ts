@@ -1,13 +1,9 @@
 import { queryOptions, useQuery } from "@tanstack/react-query";
 import type { DispatchHealth, Health } from "@shared/contracts";
 import { api, ApiError } from "@/lib/api-client";
+import { healthKeys } from "@/features/health/api/keys";
 
 export type { DispatchHealth, Health };
-
-/** Query keys of the server's health (the health feature owns it). */
-export const healthKeys = {
-  all: ["health"] as const,
-};
 
 /** The server answers 503 with the same body when degraded (database or Redis down): that is a state, not an error. */
 export async function getHealth(): Promise<Health> {

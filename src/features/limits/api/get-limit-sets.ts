@@ -1,12 +1,7 @@
 import { queryOptions, useSuspenseQuery } from "@tanstack/react-query";
-import { api } from "@/lib/api-client";
-
-/** Query keys of a design's limit sets (the limits feature owns them). */
-export const limitSetKeys = {
-  all: ["limit-sets"] as const,
-  list: (designId: string) => [...limitSetKeys.all, designId] as const,
-};
 import type { LimitSet } from "@shared/contracts";
+import { api } from "@/lib/api-client";
+import { limitSetKeys } from "@/features/limits/api/keys";
 
 export async function getLimitSets(designId: string): Promise<LimitSet[]> {
   const { limitSets } = await api.get<{ limitSets: LimitSet[] }>(`/designs/${encodeURIComponent(designId)}/limit-sets`);

@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from "@tanstack/react-query";
 import { limitSetBodySchema } from "@shared/schemas/design";
 import { api, checkBody } from "@/lib/api-client";
 import { designKeys } from "@/features/designs";
-import { limitSetKeys } from "@/features/limits/api/get-limit-sets";
+import { limitSetKeys } from "@/features/limits/api/keys";
 import type { LimitSet } from "@shared/contracts";
 import type { LimitSetBodyInput as LimitSetInput } from "@shared/schemas/design";
 

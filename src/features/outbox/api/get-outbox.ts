@@ -1,13 +1,9 @@
 import { queryOptions, useSuspenseQuery } from "@tanstack/react-query";
 import type { OutboxMessage } from "@shared/contracts";
 import { api } from "@/lib/api-client";
+import { outboxKeys } from "@/features/outbox/api/keys";
 
 export type { OutboxMessage };
-
-/** Query keys of the stored mail (the outbox feature owns them). */
-export const outboxKeys = {
-  all: ["outbox"] as const,
-};
 
 /** Stored mail, newest first. */
 export async function getOutbox(): Promise<OutboxMessage[]> {

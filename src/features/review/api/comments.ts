@@ -2,14 +2,9 @@ import { queryOptions, useMutation, useQueryClient, useSuspenseQuery } from "@ta
 import { commentBodySchema } from "@shared/schemas/review";
 import { api, checkBody } from "@/lib/api-client";
 import type { Comment } from "@shared/contracts";
+import { commentKeys } from "@/features/review/api/keys";
 
 export { commentBodySchema as commentSchema } from "@shared/schemas/review";
-
-/** Query keys of run comments (the review feature owns them). */
-export const commentKeys = {
-  all: ["comments"] as const,
-  list: (runId: string) => [...commentKeys.all, runId] as const,
-};
 
 export function getCommentsQueryOptions(runId: string) {
   return queryOptions({

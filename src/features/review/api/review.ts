@@ -3,11 +3,7 @@ import type { ReviewResponse } from "@shared/contracts";
 import { reviewActionSchema, type ReviewActionInput } from "@shared/schemas/review";
 import { api, checkBody } from "@/lib/api-client";
 import { designKeys, revisionKeys } from "@/features/designs";
-
-/** A revision's review hangs off the revision's own key: invalidating the revision refreshes its review too. */
-export const reviewKeys = {
-  detail: (revisionId: string) => [...revisionKeys.detail(revisionId), "review"] as const,
-};
+import { reviewKeys } from "@/features/review/api/keys";
 
 export function getReviewQueryOptions(revisionId: string) {
   return queryOptions({

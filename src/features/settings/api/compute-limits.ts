@@ -2,15 +2,11 @@ import { queryOptions, useMutation, useQueryClient, useSuspenseQuery } from "@ta
 import type { ComputeLimitsResponse } from "@shared/contracts";
 import { computeLimitsSchema, type ComputeLimits } from "@shared/schemas/settings";
 import { api, checkBody } from "@/lib/api-client";
+import { settingsKeys } from "@/features/settings/api/keys";
 
 export { computeLimitsSchema } from "@shared/schemas/settings";
 
 type LimitsResponse = ComputeLimitsResponse;
-
-/** Query keys of the admin's settings (the settings feature owns them). */
-export const settingsKeys = {
-  computeLimits: ["settings", "compute-limits"] as const,
-};
 
 export function getComputeLimitsQueryOptions() {
   return queryOptions({ queryKey: settingsKeys.computeLimits, queryFn: () => api.get<LimitsResponse>("/settings/compute-limits") });

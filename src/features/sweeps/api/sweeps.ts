@@ -3,15 +3,10 @@ import { isFinishedRunState, type CreatedSweepResponse, type SweepResponse, type
 import { createSweepSchema, type CreateSweepInput } from "@shared/schemas/review";
 import { api, checkBody } from "@/lib/api-client";
 import { invalidateAfterLaunch } from "@/features/runs";
+import { sweepKeys } from "@/features/sweeps/api/keys";
 
 export type { CreateSweepInput, SweepResponse, SweepRow };
 export type Assignment = CreateSweepInput["assignments"][number];
-
-/** Query keys of grade sweeps (the sweeps feature owns them; their runs are the runs feature's). */
-export const sweepKeys = {
-  all: ["sweeps"] as const,
-  detail: (sweepId: string) => [...sweepKeys.all, sweepId] as const,
-};
 
 /** Launches one run per grade assignment, all with the same seed (analyst); like any launch it locks the revision. */
 export function useCreateSweep() {

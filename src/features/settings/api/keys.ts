@@ -1,0 +1,4 @@
+/** Query keys of the admin's settings (the settings feature owns them). */
+export const settingsKeys = {
+  computeLimits: ["settings", "compute-limits"] as const,
+};
