@@ -239,11 +239,12 @@ export async function runMonteCarlo(netlist: Netlist, limits: unknown, options: 
 export const DEFAULT_CHUNK_SIZE = 2500;
 
 /**
- * Most part evaluations (trials × corners × points × parts) in one chunk: about 0.4 s of one thread. Chunks of
- * large circuits get fewer trials, so runs that share a pool take turns at least this often (chunking never
- * changes a result).
+ * Most part evaluations (trials × corners × points × parts) in one chunk: 0.1 s of one thread on a small ladder,
+ * about a second on the largest circuits (which solve several times slower per part). Chunks of large circuits get
+ * fewer trials, down to one, so runs that share a pool take turns at least this often (chunking never changes a
+ * result). Equal to the default per-trial limit (shared/schemas/settings.ts).
  */
-export const CHUNK_COST_BUDGET = 1e7;
+export const CHUNK_COST_BUDGET = 3e6;
 
 /** The chunk size for a run: `chunkSize`, or fewer trials when a chunk would cost more than CHUNK_COST_BUDGET (at least 1). */
 export function costBoundedChunkSize(run: RunShape, chunkSize: number): number {
