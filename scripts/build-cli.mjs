@@ -13,7 +13,8 @@
  * and inside the bundles each project module's `import.meta.url` reads as the URL its own output would have in
  * that tree (dist/cli/server/engine/trial-pool.js for the trial pool). So `new URL("../../workers/trials.worker.js",
  * import.meta.url)` in server/engine/trial-pool.ts finds the bundled worker, and no source file needs to know
- * whether it runs bundled. piscina stays external: it starts its threads from its own worker.js in node_modules,
+ * whether it runs bundled. Each command is a chunk of its own beside main.js (cli-app.ts imports commands when
+ * called), so `--help` or `snap` loads neither piscina nor zod. piscina stays external: it starts its threads from its own worker.js in node_modules,
  * and `move()` in the worker must be the same module instance piscina's thread uses.
  *
  * Staleness: dist/cli/inputs.json, written last, lists every project file esbuild read (from its metafile) plus
@@ -21,7 +22,7 @@
  * missing, or when any input is gone or was modified after the build started.
  * Each file is written to a temporary name and renamed, so two commands building at once never see half a file.
  */
-import { mkdirSync, readFileSync, renameSync, statSync, writeFileSync } from "node:fs";
+import { mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from "node:fs";
 import { performance } from "node:perf_hooks";
 import { dirname, join, relative, sep } from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
@@ -36,6 +37,9 @@ export const CLI_ENTRIES = ["server/cli/main.ts", "workers/trials.worker.ts"];
 /** Where the bundled form of a source file lives: same path under dist/cli, extension .js. */
 const outPathOf = (sourceRel) => join(outRoot, sourceRel.replace(/\.[cm]?tsx?$/, ".js"));
 
+/** Name prefix of the code-split chunks written beside each entry. */
+const CHUNK_PREFIX = "chunk-";
+
 /** The bundled CLI's entry file. */
 export const CLI_BUNDLE = outPathOf(CLI_ENTRIES[0]);
 
@@ -44,8 +48,11 @@ export function isCliBundleStale() {
   let stamp;
   let inputs;
   try {
-    ({ startedAt: stamp, inputs } = JSON.parse(readFileSync(stampFile, "utf8")));
-    for (const entry of CLI_ENTRIES) statSync(outPathOf(entry));
+    let outputs;
+    let entries;
+    ({ startedAt: stamp, inputs, outputs, entries } = JSON.parse(readFileSync(stampFile, "utf8")));
+    if (JSON.stringify(entries) !== JSON.stringify(CLI_ENTRIES)) return true;
+    for (const out of outputs) statSync(join(outRoot, out)); // entries and their chunks
   } catch {
     return true;
   }
@@ -69,13 +76,18 @@ export async function buildCli(options = {}) {
   const startedAt = Date.now(); // a source saved while the build runs leaves the bundle stale
   const inputs = new Set(["package-lock.json", relative(root, fileURLToPath(import.meta.url))]);
   const outputs = [];
-  // One build per entry: the import.meta.url rewrite is relative to the entry's own output file.
+  // One build per entry: the import.meta.url rewrite is relative to the entry's own output file. Code split: each
+  // dynamically imported command is a chunk beside its entry (same folder, so the rewrite holds for chunks too), so
+  // a command loads only what it uses (cli-app.ts).
   for (const entry of CLI_ENTRIES) {
     const outfile = outPathOf(entry);
     const result = await esbuild.build({
       absWorkingDir: root,
       entryPoints: [entry],
-      outfile,
+      outdir: dirname(outfile),
+      entryNames: "[name]",
+      chunkNames: `${CHUNK_PREFIX}[name]-[hash]`,
+      splitting: true,
       bundle: true,
       platform: "node",
       format: "esm",
@@ -98,8 +110,10 @@ export async function buildCli(options = {}) {
     for (const p of Object.keys(result.metafile.inputs)) if (!p.includes("node_modules/") && !p.startsWith("<")) inputs.add(p);
   }
   for (const file of outputs) writeAtomically(file.path, file.contents);
+  removeOldChunks(new Set(outputs.map((f) => f.path)));
   const list = [...inputs].map((p) => p.split(sep).join("/")).sort();
-  writeAtomically(stampFile, `${JSON.stringify({ startedAt, entries: CLI_ENTRIES, inputs: list }, null, 1)}\n`);
+  const outList = outputs.map((f) => relative(outRoot, f.path).split(sep).join("/")).sort();
+  writeAtomically(stampFile, `${JSON.stringify({ startedAt, entries: CLI_ENTRIES, outputs: outList, inputs: list }, null, 1)}\n`);
   return CLI_BUNDLE;
 }
 
@@ -128,6 +142,16 @@ function moduleUrlPlugin(bundleFile) {
       });
     },
   };
+}
+
+/** Chunks of earlier builds (other hashes) beside the entries. */
+function removeOldChunks(keep) {
+  for (const folder of new Set(CLI_ENTRIES.map((e) => dirname(outPathOf(e))))) {
+    for (const name of readdirSync(folder)) {
+      const path = join(folder, name);
+      if (name.startsWith(CHUNK_PREFIX) && name.endsWith(".js") && !keep.has(path)) rmSync(path, { force: true });
+    }
+  }
 }
 
 function writeAtomically(path, contents) {

@@ -5,9 +5,6 @@
  * on stderr ("lotwise: …"), never a stack trace.
  */
 import { describeError } from "./cli-support";
-import { matchCommand, MATCH_HELP, snapCommand, SNAP_HELP, synthCommand, SYNTH_HELP } from "./design-commands";
-import { runCommand, RUN_HELP } from "./run-command";
-import { sweepCommand, SWEEP_HELP } from "./sweep-command";
 
 const HELP = `Usage: lotwise <command> [options]
 
@@ -20,12 +17,17 @@ Commands:
 
 Run "lotwise <command> --help" for a command's options. Add --json for machine-readable output.`;
 
-const COMMANDS: Record<string, { run: (args: string[]) => number | Promise<number>; help: string }> = {
-  sweep: { run: sweepCommand, help: SWEEP_HELP },
-  run: { run: runCommand, help: RUN_HELP },
-  synth: { run: synthCommand, help: SYNTH_HELP },
-  match: { run: matchCommand, help: MATCH_HELP },
-  snap: { run: snapCommand, help: SNAP_HELP },
+type Command = (args: string[]) => number | Promise<number>;
+
+// Each command is loaded when it is called: the bundled CLI (scripts/build-cli.mjs) keeps every command in a chunk of
+// its own, so `--help`, `snap` or `synth` never load the worker pool (piscina) or the schemas (zod) that `run` and
+// `sweep` need, which is most of a start's time.
+const COMMANDS: Record<string, () => Promise<Command>> = {
+  sweep: async () => (await import("./sweep-command")).sweepCommand,
+  run: async () => (await import("./run-command")).runCommand,
+  synth: async () => (await import("./design-commands")).synthCommand,
+  match: async () => (await import("./design-commands")).matchCommand,
+  snap: async () => (await import("./design-commands")).snapCommand,
 };
 
 /** Runs the CLI with the given arguments; resolves to the exit code. */
@@ -35,13 +37,13 @@ export async function main(argv: string[]): Promise<number> {
     process.stdout.write(`${HELP}\n`);
     return name === undefined ? 2 : 0;
   }
-  const command = COMMANDS[name];
-  if (!command) {
+  const load = Object.hasOwn(COMMANDS, name) ? COMMANDS[name] : undefined;
+  if (!load) {
     process.stderr.write(`lotwise: unknown command "${name}" (use sweep, run, synth, match or snap; see lotwise --help)\n`);
     return 2;
   }
   try {
-    return await command.run(rest);
+    return await (await load())(rest);
   } catch (err) {
     const { message, exitCode } = describeError(err);
     process.stderr.write(`lotwise ${name}: ${message}${exitCode === 2 ? ` (see lotwise ${name} --help)` : ""}\n`);

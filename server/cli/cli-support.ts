@@ -104,3 +104,9 @@ export function fmt(x: number | null | undefined, digits = 4): string {
   if (x === null || x === undefined || !Number.isFinite(x)) return "—";
   return Number(x.toPrecision(digits)).toString();
 }
+
+/** Prints a command's help text; resolves the exit code 0. */
+export function help(text: string): number {
+  process.stdout.write(`${text}\n`);
+  return 0;
+}

@@ -7,8 +7,7 @@ import { snapToSeries } from "../../shared/engine/e-series";
 import type { ESeriesName, Netlist } from "../../shared/engine/netlist";
 import { designLMatch, synthesizeLadder, type LadderSpec } from "../../shared/engine/synthesis/index";
 import { formatSi } from "../../shared/units";
-import { choiceOption, CliUsageError, intOption, printJson, requireOption, siOption } from "./cli-support";
-import { help } from "./sweep-command";
+import { choiceOption, CliUsageError, help, intOption, printJson, requireOption, siOption } from "./cli-support";
 
 export const SYNTH_HELP = `Usage: lotwise synth --family butterworth|chebyshev|bessel --type lowpass|highpass|bandpass|bandstop
                      --order N (--cutoff HZ | --low HZ --high HZ) [--ripple DB] [--z0 OHM] [--first shunt|series] [--json]

@@ -12,8 +12,7 @@ import type { RunOptions } from "../../shared/engine/run-options";
 import { limitsSchema } from "../../shared/schemas/limits";
 import { netlistSchema } from "../../shared/schemas/netlist";
 import { createTrialPool } from "../engine/trial-pool";
-import { checkWithSchema, choiceOption, CliUsageError, fmt, intOption, printJson, readJsonInput, siOption } from "./cli-support";
-import { help } from "./sweep-command";
+import { checkWithSchema, choiceOption, CliUsageError, fmt, help, intOption, printJson, readJsonInput, siOption } from "./cli-support";
 
 export const RUN_HELP = `Usage: lotwise run NETLIST --limits LIMITS --trials N --seed S [options]
 

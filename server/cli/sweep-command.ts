@@ -8,7 +8,7 @@ import type { Netlist } from "../../shared/engine/netlist";
 import { compileNetlist, createSweepEvaluator, nominalValues, sParamDb, sParamDeg } from "../../shared/engine/solver";
 import { netlistSchema } from "../../shared/schemas/netlist";
 import { formatSi } from "../../shared/units";
-import { checkWithSchema, choiceOption, CliUsageError, fmt, intOption, printJson, readJsonInput, siOption } from "./cli-support";
+import { checkWithSchema, choiceOption, CliUsageError, fmt, help, intOption, printJson, readJsonInput, siOption } from "./cli-support";
 
 export const SWEEP_HELP = `Usage: lotwise sweep NETLIST --from HZ --to HZ --points N [--scale log|lin] [--json]
 
@@ -54,11 +54,5 @@ export function sweepCommand(args: string[]): number {
     lines.push(`${formatSi(f, "Hz").padEnd(12)} ${fmt(out.s21_db[k], 5).padStart(9)} ${fmt(out.s11_db[k], 5).padStart(10)} ${fmt(out.s21_deg[k], 5).padStart(10)} ${fmt(out.gd21_ns[k], 5).padStart(11)}`);
   });
   process.stdout.write(`${lines.join("\n")}\n`);
-  return 0;
-}
-
-/** Prints help text and returns exit code 0. */
-export function help(text: string): number {
-  process.stdout.write(`${text}\n`);
   return 0;
 }
