@@ -94,7 +94,7 @@ describe("Wilson and Clopper–Pearson intervals", () => {
 
 describe("normal distribution helpers", () => {
   it("Φ and Φ⁻¹ agree with jStat", () => {
-    // Oracle: jstat 1.9.6 normal.cdf/inv. [C] measured at these points: |Δcdf| ≤ 1.2e-16, |Δinv| ≤ 1.1e-14, so the
+    // Oracle: jstat 1.9.6 normal.cdf/inv, called here at test time. [C] measured at these points: |Δcdf| ≤ 1.2e-16, |Δinv| ≤ 1.1e-14, so the
     // 1e-12 / 1e-9 bounds leave margin. (docs/references.md §6's "jstat ~5e-11" is about beta.inv CP bounds, not these.)
     for (const z of [-4, -3, -1.5, 0, 0.7, 2, 3, 4]) expect(Math.abs(normalCdf(z) - jStat.normal.cdf(z, 0, 1))).toBeLessThan(1e-12);
     for (const p of [0.001, 0.025, 0.3, 0.5, 0.9, 0.975, 0.99865]) expect(Math.abs(normalQuantile(p) - jStat.normal.inv(p, 0, 1))).toBeLessThan(1e-9);
