@@ -7,7 +7,8 @@ import {
   addRevision, createDesign, designDetail, designViews, findDesign, findMeasured, findRevision, latestRevision, listDesigns, replaceRevision, updateDesign,
 } from "../services/designs";
 import { measuredFromUpload, netlistFromUpload } from "../services/revision-files";
-import { MEASURED_UPLOAD_LIMIT, receiveUpload, REVISION_UPLOAD_LIMIT } from "../services/uploads";
+import { receiveUpload } from "../middlewares/receive-upload";
+import { MEASURED_UPLOAD_LIMIT, REVISION_UPLOAD_LIMIT } from "../services/uploads";
 import type { Netlist } from "../../shared/engine/netlist";
 import {
   createDesignSchema, listDesignsQuerySchema, measuredUploadFieldsSchema, replaceRevisionSchema, revisionBodySchema, revisionUploadFieldsSchema, updateDesignSchema,
