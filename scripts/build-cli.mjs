@@ -24,7 +24,7 @@
  */
 import { mkdirSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from "node:fs";
 import { performance } from "node:perf_hooks";
-import { dirname, join, relative, sep } from "node:path";
+import { basename, dirname, join, relative, sep } from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
 
 const root = fileURLToPath(new URL("..", import.meta.url));
@@ -109,7 +109,9 @@ export async function buildCli(options = {}) {
     outputs.push(...result.outputFiles);
     for (const p of Object.keys(result.metafile.inputs)) if (!p.includes("node_modules/") && !p.startsWith("<")) inputs.add(p);
   }
-  for (const file of outputs) writeAtomically(file.path, file.contents);
+  // Chunks before the entries that import them, so a command starting meanwhile never finds a missing chunk.
+  const isChunk = (f) => basename(f.path).startsWith(CHUNK_PREFIX);
+  for (const file of [...outputs.filter(isChunk), ...outputs.filter((f) => !isChunk(f))]) writeAtomically(file.path, file.contents);
   removeOldChunks(new Set(outputs.map((f) => f.path)));
   const list = [...inputs].map((p) => p.split(sep).join("/")).sort();
   const outList = outputs.map((f) => relative(outRoot, f.path).split(sep).join("/")).sort();
