@@ -80,20 +80,22 @@ export function denseEnvelope(agg: TrialAggregate): Uint32Array {
 
 /** An empty aggregate for a plan. */
 export function createAggregate(plan: RunPlan): TrialAggregate {
-  const R = plan.rules.length;
-  const bins = plan.options.histogramBins;
+  return emptyAggregate(metaOf(plan), plan.rules.length, plan.rules.length * (plan.options.histogramBins + 2), plan.pairs.length * plan.grid.freqs.length * (plan.envelopeBins + 2));
+}
+
+function emptyAggregate(meta: AggregateMeta, rules: number, marginCells: number, envelopeCells: number): TrialAggregate {
   return {
-    meta: metaOf(plan),
+    meta,
     trials: 0,
     passed: 0,
     ranges: [],
-    ruleFailures: new Array(R).fill(0),
-    marginSum: Array.from({ length: R }, () => []),
-    marginSumSq: Array.from({ length: R }, () => []),
-    marginMin: new Array(R).fill(Infinity),
-    marginMax: new Array(R).fill(-Infinity),
-    marginCounts: new Float64Array(R * (bins + 2)),
-    envelopeCounts: new Uint32Array(plan.pairs.length * plan.grid.freqs.length * (plan.envelopeBins + 2)),
+    ruleFailures: new Array(rules).fill(0),
+    marginSum: Array.from({ length: rules }, () => []),
+    marginSumSq: Array.from({ length: rules }, () => []),
+    marginMin: new Array(rules).fill(Infinity),
+    marginMax: new Array(rules).fill(-Infinity),
+    marginCounts: new Float64Array(marginCells),
+    envelopeCounts: new Uint32Array(envelopeCells),
     failing: [],
     sample: [],
   };
@@ -101,22 +103,7 @@ export function createAggregate(plan: RunPlan): TrialAggregate {
 
 /** An empty aggregate of the same run as `agg` (same meta and sizes): what a driver starts from when it has no plan. */
 export function emptyAggregateLike(agg: TrialAggregate): TrialAggregate {
-  const R = agg.ruleFailures.length;
-  return {
-    meta: agg.meta,
-    trials: 0,
-    passed: 0,
-    ranges: [],
-    ruleFailures: new Array(R).fill(0),
-    marginSum: Array.from({ length: R }, () => []),
-    marginSumSq: Array.from({ length: R }, () => []),
-    marginMin: new Array(R).fill(Infinity),
-    marginMax: new Array(R).fill(-Infinity),
-    marginCounts: new Float64Array(agg.marginCounts.length),
-    envelopeCounts: new Uint32Array(agg.envelopeSparse?.length ?? agg.envelopeCounts.length),
-    failing: [],
-    sample: [],
-  };
+  return emptyAggregate(agg.meta, agg.ruleFailures.length, agg.marginCounts.length, agg.envelopeSparse?.length ?? agg.envelopeCounts.length);
 }
 
 /**

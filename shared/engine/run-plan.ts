@@ -60,13 +60,8 @@ export interface RunPlan {
  *   nominal circuit cannot be solved
  */
 export function planRun(netlist: Netlist, limits: unknown, options: unknown): RunPlan {
-  if (typeof netlist !== "object" || netlist === null) throw new EngineError("INVALID_NETLIST", "netlist must be an object with `ports` and `parts`", { path: "netlist" });
-  const compiled = compileNetlist(netlist);
-  const compiledRules = validateLimits(limits, compiled.portCount);
-  const resolved = resolveRunOptions(options, compiledRules);
-  const grid = buildFrequencyGrid(resolved.sweep, compiledRules);
+  const { compiled, compiledRules, resolved, grid, sampling } = checkInputs(netlist, limits, options);
   const rules: BoundRule[] = compiledRules.map((rule, k) => ({ rule, start: grid.ranges[k].start, end: grid.ranges[k].end }));
-  const sampling = compileSampling(netlist, resolved);
   const evaluator = createSweepEvaluator(compiled, grid.freqs);
   const P = compiled.portCount;
   const pairs: PortPair[] = [];
@@ -109,13 +104,19 @@ export interface RunShape {
  * @throws EngineError INVALID_NETLIST / INVALID_LIMITS / INVALID_INPUT
  */
 export function shapeRun(netlist: Netlist, limits: unknown, options: unknown): RunShape {
+  const { resolved, grid, sampling } = checkInputs(netlist, limits, options);
+  return { options: resolved, points: grid.freqs.length, parts: sampling.partCount };
+}
+
+/** Every check of a run's inputs, and what they compile to (no solve). */
+function checkInputs(netlist: Netlist, limits: unknown, options: unknown) {
   if (typeof netlist !== "object" || netlist === null) throw new EngineError("INVALID_NETLIST", "netlist must be an object with `ports` and `parts`", { path: "netlist" });
   const compiled = compileNetlist(netlist);
   const compiledRules = validateLimits(limits, compiled.portCount);
   const resolved = resolveRunOptions(options, compiledRules);
   const grid = buildFrequencyGrid(resolved.sweep, compiledRules);
   const sampling = compileSampling(netlist, resolved);
-  return { options: resolved, points: grid.freqs.length, parts: sampling.partCount };
+  return { compiled, compiledRules, resolved, grid, sampling };
 }
 
 /** The shape of a planned run. */
