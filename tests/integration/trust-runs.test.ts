@@ -7,6 +7,7 @@ import { DesignRevision, GradeSweep, Run, type User } from "../../server/entitie
 import { createRunQueue } from "../../server/services/run-queue";
 import { createEmbeddedDispatcher } from "../../server/engine/dispatcher";
 import type { Netlist } from "../../shared/engine/netlist";
+import { recordingLogger } from "../helpers/distributed";
 import { createTestContext, ORIGIN, TEST_PASSWORD, type TestContext } from "../helpers/test-context";
 import { insertRun, LOWPASS, makeRunFixture } from "./access-samples/runs";
 
@@ -345,6 +346,42 @@ describe("a slowly read trials CSV (fault 12, the listener warning)", () => {
       server.close();
     }
   }, 90_000);
+});
+
+describe("an export stops when its client leaves (fault 3)", () => {
+  // Before: a trials CSV kept computing on the server's thread for seconds after the client had gone.
+  it("stops computing the trials CSV once the download is dropped", async () => {
+    const run = await insertRun(t, analyst.user, "done", 200);
+    await t.ctx.dataSource.getRepository(Run).update({ id: run.id }, {
+      netlist: HEAVY, limits: { rules: [{ metric: "s21_db", from: 1e6, to: 5e6, min: -3 }] }, options: { trials: 200, seed: 9, sweep: HEAVY_SWEEP },
+    });
+    const limits = (await admin.agent.get("/api/settings/compute-limits").expect(200)).body.limits;
+    await put(admin.agent, "/api/settings/compute-limits").send({ ...limits, maxExportCost: 1e12 }).expect(200);
+    const log = recordingLogger();
+    const quiet = t.ctx.log;
+    t.ctx.log = log;
+    const server = http.createServer(t.app).listen(0, "127.0.0.1");
+    await new Promise((r) => server.once("listening", r));
+    try {
+      const port = (server.address() as AddressInfo).port;
+      const cookie = await signInCookie(analyst.user);
+      await new Promise<void>((resolve, reject) => {
+        const req = http.get({ host: "127.0.0.1", port, path: `/api/runs/${run.id}/trials.csv`, headers: { cookie } }, (res) => {
+          res.once("data", () => {
+            req.destroy(); // the person closes the tab after the first rows
+            resolve();
+          });
+        });
+        req.on("error", () => undefined);
+        setTimeout(() => reject(new Error("no data")), 30_000);
+      });
+      await waitFor("the export to stop", async () => log.lines.some((l) => l.event === "export_stopped" && l.fields?.reason === "client_gone"), 10_000);
+    } finally {
+      t.ctx.log = quiet;
+      server.close();
+      await put(admin.agent, "/api/settings/compute-limits").send(limits).expect(200);
+    }
+  }, 60_000);
 });
 
 async function signInCookie(user: User): Promise<string> {
