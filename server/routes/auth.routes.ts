@@ -1,10 +1,9 @@
 import { z } from "zod";
 import { decoyPasswordHash, verifyPassword } from "../auth/passwords";
 import type { AppContext } from "../context";
-import { User } from "../entities";
 import { AppError } from "../errors";
 import { presentAuthUser } from "../presenters/user.presenter";
-import { acceptInvitation, findOpenInvitation, requestPasswordReset, resetPassword } from "../services/accounts";
+import { acceptInvitation, findAccountByEmail, findOpenInvitation, requestPasswordReset, resetPassword } from "../services/accounts";
 import { acceptInvitationSchema, requestResetSchema, resetPasswordSchema, signInSchema } from "../../shared/schemas/auth";
 import { ApiRouter } from "./api-router";
 
@@ -25,7 +24,7 @@ export function authRoutes(ctx: AppContext): ApiRouter {
     handler: async ({ req, res, body }) => {
       const address = req.socket.remoteAddress ?? "unknown";
       await ctx.limiter.check(body.email, address);
-      const user = await ctx.dataSource.getRepository(User).findOneBy({ email: body.email });
+      const user = await findAccountByEmail(ctx, body.email);
       const ok = await verifyPassword(user?.passwordHash ?? (await decoyPasswordHash()), body.password);
       if (!user || !ok || !user.active) {
         await ctx.limiter.recordFailure(body.email, address);

@@ -1,10 +1,7 @@
-import { randomUUID } from "node:crypto";
 import type { AppContext } from "../context";
-import { MeasuredResponse } from "../entities";
-import { notFound } from "../errors";
 import { presentMeasured, presentRevision } from "../presenters/design.presenter";
 import {
-  addRevision, createDesign, designDetail, designViews, findDesign, findMeasured, findRevision, latestRevision, listDesigns, replaceRevision, updateDesign,
+  addMeasured, addRevision, createDesign, deleteMeasured, designDetail, designViews, findDesign, findMeasured, findRevision, latestRevision, listDesigns, replaceRevision, updateDesign,
 } from "../services/designs";
 import { measuredFromUpload, netlistFromUpload } from "../services/revision-files";
 import { receiveUpload } from "../middlewares/receive-upload";
@@ -103,8 +100,7 @@ export function designsRoutes(ctx: AppContext): ApiRouter {
       const { file, fields } = await receiveUpload(req, res, MEASURED_UPLOAD_LIMIT);
       const { name } = parseInput(measuredUploadFieldsSchema, fields, "upload");
       const data = measuredFromUpload(file);
-      const measured = { id: randomUUID(), designId, name: name ?? file.fileName.replace(/\.s[12]p$/i, "").slice(0, 120), fileName: file.fileName.slice(0, 255), data, uploadedById: user!.id };
-      await ctx.dataSource.getRepository(MeasuredResponse).insert(measured);
+      const measured = await addMeasured(ctx, { designId, name: name ?? file.fileName.replace(/\.s[12]p$/i, "").slice(0, 120), fileName: file.fileName.slice(0, 255), data, uploadedById: user!.id });
       res.status(201).json({ measured: { id: measured.id, name: measured.name, fileName: measured.fileName, points: data.freqs.length } });
     },
   });
@@ -119,8 +115,7 @@ export function designsRoutes(ctx: AppContext): ApiRouter {
   api.delete("/measured/:id", {
     access: ACCESS.editDesigns,
     handler: async ({ req, res }) => {
-      const result = await ctx.dataSource.getRepository(MeasuredResponse).delete({ id: id(req.params) });
-      if (result.affected !== 1) throw notFound("That measured response");
+      await deleteMeasured(ctx, id(req.params));
       res.status(204).end();
     },
   });

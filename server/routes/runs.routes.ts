@@ -1,13 +1,12 @@
 import type { Response } from "express";
 import type { AppContext } from "../context";
-import { Run } from "../entities";
 import { AppError } from "../errors";
 import { presentRunSummary } from "../presenters/run.presenter";
 import {
   checkTrialIndex, exportSignal, planTrialsCsv, requireDone, runTouchstone, trialCountOf, trialReplay, trialsCsvHeader, trialsCsvRows,
 } from "../services/run-exports";
 import type { RunEvent } from "../services/run-queue";
-import { createRun, findRun, runDetail } from "../services/runs";
+import { createRun, findRun, runDetail, runProgressRow } from "../services/runs";
 import { createRunSchema } from "../../shared/schemas/run-request";
 import { ApiRouter } from "./api-router";
 import { ACCESS } from "../../shared/contracts/access";
@@ -68,7 +67,7 @@ export function runsRoutes(ctx: AppContext): ApiRouter {
     handler: async ({ req, res }) => {
       const runId = String(req.params.id);
       await findRun(ctx, runId);
-      const sessionId = (res.locals.sessionId as string | null | undefined) ?? null;
+      const sessionToken = (res.locals.sessionToken as string | null | undefined) ?? null;
       res.status(200);
       res.set({ "Content-Type": "text/event-stream", "Cache-Control": "no-store", Connection: "keep-alive", "X-Accel-Buffering": "no" });
       res.flushHeaders();
@@ -85,9 +84,9 @@ export function runsRoutes(ctx: AppContext): ApiRouter {
       };
       const progressOf = (e: Extract<RunEvent, { type: "progress" }>) => ({ state: e.state, trialsDone: e.trialsDone, trialsTotal: e.trialsTotal, ratePerSecond: e.ratePerSecond, etaSeconds: e.etaSeconds });
       const tick = async () => {
-        const check = await ctx.sessions.validate(sessionId);
+        const check = await ctx.sessions.validate(sessionToken);
         if (!check.user) return finish("signed-out");
-        const run = await ctx.dataSource.getRepository(Run).findOne({ where: { id: runId }, select: { id: true, state: true, trialsDone: true, trialsTotal: true } });
+        const run = await runProgressRow(ctx, runId);
         if (!run || FINISHED.has(run.state)) return finish(run?.state ?? "cancelled");
         const live = ctx.runQueue.live(runId);
         if (live) return send("progress", progressOf(live));
@@ -144,6 +143,7 @@ export function runsRoutes(ctx: AppContext): ApiRouter {
         if (!exp.signal.aborted) throw err;
         // Past its budget (or the client left): the download ends short; a partial file must not look complete.
         if (exp.signal.reason instanceof AppError) ctx.log.warn("export_stopped", { runId: run.id, reason: exp.signal.reason.code, seconds: exp.seconds });
+        else ctx.log.info("export_stopped", { runId: run.id, reason: "client_gone" });
         res.destroy();
       } finally {
         exp.dispose();

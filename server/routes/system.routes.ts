@@ -1,5 +1,5 @@
 import type { AppContext } from "../context";
-import { OutboxMessage } from "../entities";
+import { databaseAnswers, latestOutbox } from "../services/system";
 import { presentOutboxMessage } from "../presenters/user.presenter";
 import { runLimits, saveRunLimits } from "../services/run-limits";
 import { computeLimitsSchema, DEFAULT_COMPUTE_LIMITS } from "../../shared/schemas/settings";
@@ -15,7 +15,7 @@ export function systemRoutes(ctx: AppContext): ApiRouter {
     handler: async ({ res }) => {
       const timeout = <T>(value: T) => new Promise<T>((resolve) => setTimeout(() => resolve(value), 2000).unref());
       const [up, dispatch] = await Promise.all([
-        Promise.race([ctx.dataSource.query("SELECT 1").then(() => true, () => false), timeout(false)]),
+        databaseAnswers(ctx),
         // Where runs are computed; absent until the first run started the dispatcher (embedded pool or Redis).
         Promise.race([ctx.runQueue.dispatchStatus(), timeout({ mode: "distributed", redis: "down", workers: null, waitingChunks: null, activeChunks: null } as const)]),
       ]);
@@ -43,7 +43,7 @@ export function systemRoutes(ctx: AppContext): ApiRouter {
   api.get("/outbox", {
     access: ACCESS.administer,
     handler: async ({ res }) => {
-      const messages = await ctx.dataSource.getRepository(OutboxMessage).find({ order: { receivedAt: "DESC" }, take: 200 });
+      const messages = await latestOutbox(ctx);
       res.json({ messages: messages.map(presentOutboxMessage), mode: ctx.mailer.mode });
     },
   });

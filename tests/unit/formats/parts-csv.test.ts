@@ -202,7 +202,7 @@ describe("parsePartsCsv errors (one named test each: message, line, field)", () 
   });
 
   it("tolerance not readable", () => {
-    expectFormatError(() => parsePartsCsv(one("tolerance", "5 percent")), 'line 2: tolerance: not a tolerance ("5 percent"; write 2%, 0.02 or a letter code F G J K M, B C D)', 2, "tolerance");
+    expectFormatError(() => parsePartsCsv(one("tolerance", "5 percent")), 'line 2: tolerance: not a tolerance ("5 percent"; write 2%, 0.02, a letter code F G J K M, B C D or an absolute value such as 0.25p)', 2, "tolerance");
   });
 
   it("tolerance negative", () => {
@@ -218,11 +218,11 @@ describe("parsePartsCsv errors (one named test each: message, line, field)", () 
   });
 
   it("tolerance letter B on an inductor", () => {
-    expectFormatError(() => parsePartsCsv(one("tolerance", "B", "L1,L,a,b,2n")), "line 2: tolerance: letter code B is ambiguous on an inductor; write the tolerance as a percentage or use tolerance_abs", 2, "tolerance");
+    expectFormatError(() => parsePartsCsv(one("tolerance", "B", "L1,L,a,b,2n")), "line 2: tolerance: letter code B is ambiguous on an inductor; write the tolerance as a percentage or an absolute value", 2, "tolerance");
   });
 
   it("tolerance letter C together with tolerance_abs", () => {
-    expectFormatError(() => parsePartsCsv(one("tolerance,tolerance_abs", "C,0.1p")), "line 2: tolerance: letter code C is an absolute tolerance and tolerance_abs is also given", 2, "tolerance");
+    expectFormatError(() => parsePartsCsv(one("tolerance,tolerance_abs", "C,0.1p")), 'line 2: tolerance: "C" is an absolute tolerance and tolerance_abs is also given', 2, "tolerance");
   });
 
   it("tolerance_abs negative", () => {

@@ -1,6 +1,7 @@
 import { useState, type FormEvent } from "react";
 import type { PartKind } from "@shared/engine/netlist";
-import { formatSi, parseSi } from "@shared/units";
+import { readTolerance } from "@shared/tolerance";
+import { formatSi } from "@shared/units";
 import { Alert } from "@/components/ui/alert";
 import { Button } from "@/components/ui/button";
 import { TextField } from "@/components/ui/text-field";
@@ -11,17 +12,10 @@ import type { GradeBodyInput as GradeInput } from "@shared/schemas/design";
 type Errors = Partial<Record<"code" | "label" | "tolerance" | "costEach", string>>;
 const select = "h-10 rounded-md border border-ink-600 bg-ink-950 px-3 text-sm text-paper-50";
 
-/** "1%" → relative; "0.25p" → absolute (SI units); "" → neither. */
-function readTolerance(text: string): Pick<GradeInput, "tolerance" | "toleranceAbs"> | string {
-  const t = text.trim();
-  if (!t) return {};
-  const pct = /^±?\s*([\d.]+)\s*%$/.exec(t);
-  if (pct) return Number(pct[1]) <= 50 ? { tolerance: Number(pct[1]) / 100 } : "At most 50 %.";
-  try {
-    return { toleranceAbs: parseSi(t.replace(/^±\s*/, "")) };
-  } catch {
-    return "Write 1% or an absolute value such as 0.25p.";
-  }
+/** The grade's tolerance, read by the one shared reader (shared/tolerance.ts) as the parts table and CSV read it. */
+function readGradeTolerance(text: string, kind: PartKind): Pick<GradeInput, "tolerance" | "toleranceAbs"> | string {
+  const r = readTolerance(text, kind);
+  return r.ok ? r.value : `${r.error.charAt(0).toUpperCase()}${r.error.slice(1)}.`;
 }
 
 function toleranceText(g: Grade | null): string {
@@ -44,7 +38,7 @@ export function GradeForm({ grade, onDone }: { grade: Grade | null; onDone: () =
   function submit(event: FormEvent) {
     event.preventDefault();
     const next: Errors = {};
-    const t = readTolerance(tol);
+    const t = readGradeTolerance(tol, kind);
     if (typeof t === "string") next.tolerance = t;
     else if (t.tolerance === undefined && !(t.toleranceAbs! > 0)) next.tolerance = "Give the grade a tolerance (1% or 0.25p).";
     if (!code.trim()) next.code = "Code is required.";

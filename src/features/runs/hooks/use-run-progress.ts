@@ -1,11 +1,12 @@
 import { useEffect, useRef, useState } from "react";
 import { useQueryClient } from "@tanstack/react-query";
-import { getRunQueryOptions } from "@/features/runs/api/get-run";
+import { getRunQueryOptions, liveProgressStreams } from "@/features/runs/api/get-run";
 import { isFinishedRunState as isFinished, type RunProgress, type RunSummary } from "@shared/contracts";
 
 /**
- * Live progress of a run: server-sent events from `/api/runs/:id/events` while it is queued or running.
- * If the stream fails, the run query's 1.5 s polling carries on and the rate comes from successive polls:
+ * Live progress of a run: server-sent events from `/api/runs/:id/events` while it is queued or running; the run
+ * query is not polled while the stream is open. If the stream fails, the query's 1.5 s polling resumes and the rate
+ * comes from successive polls:
  * rate = Δtrials / Δt (trials/s), time left = (total − done) / rate (s).
  */
 export function useRunProgress(run: RunSummary): RunProgress & { live: boolean } {
@@ -20,24 +21,31 @@ export function useRunProgress(run: RunSummary): RunProgress & { live: boolean }
     if (finished || typeof EventSource === "undefined") return;
     const source = new EventSource(`/api/runs/${encodeURIComponent(run.id)}/events`, { withCredentials: true });
     const refresh = () => void queryClient.invalidateQueries({ queryKey: getRunQueryOptions(run.id).queryKey });
-    source.addEventListener("open", () => setLive(true));
+    const stopped = () => {
+      source.close();
+      setLive(false);
+      liveProgressStreams.delete(run.id);
+    };
+    source.addEventListener("open", () => {
+      setLive(true);
+      liveProgressStreams.add(run.id);
+    });
     source.addEventListener("progress", (e) => {
       try {
         setEvent(JSON.parse((e as MessageEvent<string>).data) as RunProgress);
       } catch {
-        /* a malformed event is skipped; polling still runs */
+        /* a malformed event is skipped; the next one or the end refreshes */
       }
     });
     source.addEventListener("end", () => {
-      source.close();
-      setLive(false);
+      stopped();
       refresh();
     });
     source.addEventListener("error", () => {
-      source.close();
-      setLive(false);
+      stopped();
+      refresh(); // polling takes over from here
     });
-    return () => source.close();
+    return () => stopped();
   }, [run.id, finished, queryClient]);
 
   useEffect(() => {
