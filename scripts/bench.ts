@@ -31,7 +31,7 @@ import type { Netlist } from "../shared/engine/netlist";
 import { compileNetlist, createSweepEvaluator, nominalValues } from "../shared/engine/solver";
 import { buildFrequencyGrid } from "../shared/engine/frequency-grid";
 import { synthesizeLadder } from "../shared/engine/synthesis/index";
-import { createTrialPool } from "../server/engine/trial-pool";
+import { createTrialPool } from "../workers/trial-pool";
 import { denseSweep } from "./oracles/dense-solver";
 import { Redis } from "ioredis";
 import { startRedis, type RedisServer } from "./redis";

@@ -11,8 +11,8 @@
  *
  * Layout: the output keeps the source tree's shape (dist/cli/server/cli/main.js, dist/cli/workers/trials.worker.js),
  * and inside the bundles each project module's `import.meta.url` reads as the URL its own output would have in
- * that tree (dist/cli/server/engine/trial-pool.js for the trial pool). So `new URL("../../workers/trials.worker.js",
- * import.meta.url)` in server/engine/trial-pool.ts finds the bundled worker, and no source file needs to know
+ * that tree (dist/cli/workers/trial-pool.js for the trial pool). So `new URL("./trials.worker.js",
+ * import.meta.url)` in workers/trial-pool.ts finds the bundled worker, and no source file needs to know
  * whether it runs bundled. Each command is a chunk of its own beside main.js (cli-app.ts imports commands when
  * called), so `--help` or `snap` loads neither piscina nor zod. piscina stays external: it starts its threads from its own worker.js in node_modules,
  * and `move()` in the worker must be the same module instance piscina's thread uses.

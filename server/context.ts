@@ -3,7 +3,7 @@ import type { SessionService } from "./auth/sessions";
 import type { SignInLimiter } from "./auth/sign-in-limiter";
 import type { ServerConfig } from "./config/env";
 import type { Logger } from "./logger";
-import type { ExportPool } from "./engine/export-pool";
+import type { ExportPool } from "../workers/export-pool";
 import type { Mailer } from "./mail/mailer";
 import type { RunQueue } from "./services/run-queue";
 
@@ -17,6 +17,6 @@ export interface AppContext {
   log: Logger;
   /** Executes queued Monte Carlo runs on the server's trial pool (server/services/run-queue.ts). */
   runQueue: RunQueue;
-  /** Replays and exports of stored runs, off the request thread (server/engine/export-pool.ts). */
+  /** Replays and exports of stored runs, off the request thread (workers/export-pool.ts). */
   exportPool: ExportPool;
 }

@@ -5,7 +5,7 @@ import type { AppContext } from "./context";
 import { createDataSource, openAndMigrate } from "./db/data-source";
 import { redactUrl } from "./engine/chunk-jobs";
 import { createDispatcher } from "./engine/dispatcher";
-import { createExportPool } from "./engine/export-pool";
+import { createExportPool } from "../workers/export-pool";
 import { createLogger, type Logger } from "./logger";
 import { createMailer } from "./mail/mailer";
 import { createRunQueue } from "./services/run-queue";

@@ -1,5 +1,5 @@
 /**
- * Worker task for the exports of a stored run (the server's export thread: server/engine/export-pool.ts): a trial
+ * Worker task for the exports of a stored run (the server's export thread: workers/export-pool.ts): a trial
  * replay, a slice of trials-CSV rows, or Touchstone text. Each is computed from the run's inputs and seed; plans of
  * the last few runs are kept so the slices of one CSV export build the run's plan once. An EngineError comes back as
  * `{ error }` (structured cloning would drop its code); anything else rejects the task.

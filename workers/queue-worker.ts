@@ -17,7 +17,7 @@
 import os from "node:os";
 import { Worker } from "bullmq";
 import { CHUNK_QUEUE, CHUNK_QUEUE_PREFIX, packAggregate, redactUrl, redisConnection, type ChunkJobData, type ChunkJobResult } from "../server/engine/chunk-jobs";
-import { createTrialPool } from "../server/engine/trial-pool";
+import { createTrialPool } from "./trial-pool";
 import { redisUrlProblem } from "../server/config/env";
 import { createLogger } from "../server/logger";
 import { isEngineError } from "../shared/engine/errors";

@@ -11,7 +11,7 @@ import type { RunResult } from "../../shared/engine/result";
 import type { RunOptions } from "../../shared/engine/run-options";
 import { limitsSchema } from "../../shared/schemas/limits";
 import { netlistSchema } from "../../shared/schemas/netlist";
-import { createTrialPool } from "../engine/trial-pool";
+import { createTrialPool } from "../../workers/trial-pool";
 import { checkWithSchema, choiceOption, CliUsageError, fmt, help, intOption, printJson, readJsonInput, siOption } from "./cli-support";
 
 export const RUN_HELP = `Usage: lotwise run NETLIST --limits LIMITS --trials N --seed S [options]

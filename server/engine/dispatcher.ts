@@ -14,9 +14,9 @@ import type { RunResult } from "../../shared/engine/result";
 import type { RunOptions } from "../../shared/engine/run-options";
 import type { Logger } from "../logger";
 import { createDistributedDispatcher } from "./distributed-dispatcher";
-import { createTrialPool, type RunControls } from "./trial-pool";
+import { createTrialPool, type RunControls } from "../../workers/trial-pool";
 
-export { ServerStopping } from "./trial-pool";
+export { ServerStopping } from "../../workers/trial-pool";
 
 /** What health reports of the dispatcher. */
 export type DispatchStatus =

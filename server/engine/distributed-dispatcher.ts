@@ -34,7 +34,7 @@ import {
 import { createBatchRemover } from "./batch-removal";
 import type { DispatchStatus, RunDispatcher } from "./dispatcher";
 import { isRedisTrouble, within } from "./redis-bounds";
-import { ServerStopping, WorkerFailure } from "./trial-pool";
+import { ServerStopping, WorkerFailure } from "../../workers/trial-pool";
 
 export interface DistributedDispatcherOptions {
   redisUrl: string;

@@ -2,7 +2,7 @@
  * Exports of a stored run, all recomputed from the run's copied inputs and seed (nothing per trial is stored): the
  * trial replay, the trials CSV (in slices) and Touchstone v1.1 files of the nominal response and of any trial.
  *
- * The computing happens on the export thread (ctx.exportPool, server/engine/export-pool.ts), never on the thread
+ * The computing happens on the export thread (ctx.exportPool, workers/export-pool.ts), never on the thread
  * that answers requests. Each export runs under one AbortSignal (`exportSignal`): the client leaving, or the
  * export's time budget (`maxExportSeconds`, admin setting) running out, stops it. Replays and trial files need a
  * finished (`done`) run; the CSV's cost is checked against `maxExportCost` before anything is written.

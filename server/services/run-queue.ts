@@ -28,7 +28,7 @@
 import type { DataSource } from "typeorm";
 import type { ServerConfig } from "../config/env";
 import { ServerStopping, type DispatchStatus, type RunDispatcher } from "../engine/dispatcher";
-import { WorkerFailure } from "../engine/trial-pool";
+import { WorkerFailure } from "../../workers/trial-pool";
 import { Run } from "../entities";
 import type { RunState } from "../entities/run.entity";
 import type { Logger } from "../logger";

@@ -6,7 +6,7 @@
  * corner, and its margin per rule is the worst over corners (rules.ts); it passes when every margin
  * is ≥ 0. Chunks of trials produce mergeable aggregates (aggregate.ts), merged exactly and finalized
  * into a RunResult (result.ts). `runMonteCarlo` drives a run in one thread (browser, CLI with one
- * worker, tests); server/engine/trial-pool.ts drives the same chunks on a worker pool.
+ * worker, tests); workers/trial-pool.ts drives the same chunks on a worker pool.
  *
  * Stop when sure: with `targetHalfWidth`, trials run in batches of `batchSize` (default 1000); after
  * each batch the Wilson 95 % half-width of all trials so far is checked and the run stops once it is

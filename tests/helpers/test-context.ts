@@ -11,7 +11,7 @@ import { loadConfig, type ServerConfig } from "../../server/config/env";
 import type { AppContext } from "../../server/context";
 import { createDataSource, openAndMigrate } from "../../server/db/data-source";
 import { createEmbeddedDispatcher, type RunDispatcher } from "../../server/engine/dispatcher";
-import { createExportPool } from "../../server/engine/export-pool";
+import { createExportPool } from "../../workers/export-pool";
 import { OutboxMessage, User } from "../../server/entities";
 import { createLogger } from "../../server/logger";
 import { startMailSink } from "../../server/mail/mail-sink";

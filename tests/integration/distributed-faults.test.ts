@@ -4,7 +4,7 @@ import { createDistributedDispatcher, type DistributedDispatcher } from "../../s
 import { Run } from "../../server/entities";
 import { toStoredResult } from "../../server/services/run-queue";
 import type { RunOptions } from "../../shared/engine/run-options";
-import { WorkerFailure } from "../../server/engine/trial-pool";
+import { WorkerFailure } from "../../workers/trial-pool";
 import { freePort, recordingLogger, sleep, startTestRedis, storedResultText, startWorker, until, type WorkerProcess } from "../helpers/distributed";
 import { createTestContext, ORIGIN, type TestContext } from "../helpers/test-context";
 import { makeRunFixture, type RunFixture } from "./access-samples/runs";

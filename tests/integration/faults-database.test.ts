@@ -9,7 +9,7 @@ import { loadConfig, type ServerConfig } from "../../server/config/env";
 import type { AppContext } from "../../server/context";
 import { createContext } from "../../server/create-context";
 import { createEmbeddedDispatcher } from "../../server/engine/dispatcher";
-import { createTrialPool } from "../../server/engine/trial-pool";
+import { createTrialPool } from "../../workers/trial-pool";
 import { Run, RunResultRow, User } from "../../server/entities";
 import type { Logger } from "../../server/logger";
 import { createRunQueue, toStoredResult } from "../../server/services/run-queue";

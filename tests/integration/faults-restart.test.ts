@@ -1,6 +1,6 @@
 import type { ChildProcess } from "node:child_process";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createTrialPool } from "../../server/engine/trial-pool";
+import { createTrialPool } from "../../workers/trial-pool";
 import { Run, RunResultRow, User } from "../../server/entities";
 import { toStoredResult } from "../../server/services/run-queue";
 import type { RunOptions } from "../../shared/engine/run-options";

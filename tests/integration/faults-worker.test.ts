@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { createTrialPool } from "../../server/engine/trial-pool";
+import { createTrialPool } from "../../workers/trial-pool";
 import { RunResultRow } from "../../server/entities";
 import { toStoredResult } from "../../server/services/run-queue";
 import type { RunOptions } from "../../shared/engine/run-options";

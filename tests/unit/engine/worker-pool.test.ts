@@ -1,7 +1,7 @@
 import { afterAll, describe, expect, it } from "vitest";
 import { EngineError } from "../../../shared/engine/errors";
 import { runMonteCarlo } from "../../../shared/engine/monte-carlo";
-import { createTrialPool } from "../../../server/engine/trial-pool";
+import { createTrialPool } from "../../../workers/trial-pool";
 import { butterLimits, butterworth3 } from "../../fixtures/butterworth3";
 
 

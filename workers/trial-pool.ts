@@ -12,17 +12,17 @@ import { randomUUID } from "node:crypto";
 import { setMaxListeners } from "node:events";
 import os from "node:os";
 import { Piscina } from "piscina";
-import { decodeAggregate, type TrialAggregate } from "../../shared/engine/aggregate";
-import { EngineError } from "../../shared/engine/errors";
-import { costBoundedChunkSize, driveRun, validateChunkSize, type ChunkTask } from "../../shared/engine/monte-carlo";
-import type { Netlist } from "../../shared/engine/netlist";
-import type { RunResult } from "../../shared/engine/result";
-import type { RunOptions } from "../../shared/engine/run-options";
-import { shapeRun } from "../../shared/engine/run-plan";
-import { createLogger, type Logger } from "../logger";
+import { decodeAggregate, type TrialAggregate } from "../shared/engine/aggregate";
+import { EngineError } from "../shared/engine/errors";
+import { costBoundedChunkSize, driveRun, validateChunkSize, type ChunkTask } from "../shared/engine/monte-carlo";
+import type { Netlist } from "../shared/engine/netlist";
+import type { RunResult } from "../shared/engine/result";
+import type { RunOptions } from "../shared/engine/run-options";
+import { shapeRun } from "../shared/engine/run-plan";
+import { createLogger, type Logger } from "../server/logger";
 import { createFairGate } from "./fair-gate";
-import { deserializeEngineError } from "../../shared/engine/task-errors";
-import type { TrialsWorkerResult } from "../../workers/trials.worker";
+import { deserializeEngineError } from "../shared/engine/task-errors";
+import type { TrialsWorkerResult } from "./trials.worker";
 
 /**
  * A chunk task that failed outside the engine: its worker thread exited or threw a plain Error (not an
@@ -89,7 +89,7 @@ export function createTrialPool(options: TrialPoolOptions = {}): TrialPool {
   const isTs = import.meta.url.endsWith(".ts");
   const needsTsx = isTs && !process.execArgv.some((a) => a.includes("tsx"));
   const piscina = new Piscina({
-    filename: new URL(`../../workers/trials.worker.${isTs ? "ts" : "js"}`, import.meta.url).href,
+    filename: new URL(`./trials.worker.${isTs ? "ts" : "js"}`, import.meta.url).href,
     execArgv: needsTsx ? [...process.execArgv, "--import", "tsx"] : undefined,
     minThreads: size,
     maxThreads: size,

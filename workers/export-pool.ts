@@ -7,9 +7,9 @@
  * budget running out aborts it, and piscina ends a running task by replacing its thread.
  */
 import { Piscina } from "piscina";
-import { deserializeEngineError } from "../../shared/engine/task-errors";
-import type { ExportResult, ExportTask } from "../../workers/exports.worker";
-import type { Logger } from "../logger";
+import { deserializeEngineError } from "../shared/engine/task-errors";
+import type { ExportResult, ExportTask } from "./exports.worker";
+import type { Logger } from "../server/logger";
 import { createFairGate } from "./fair-gate";
 
 export interface ExportPool {
@@ -24,7 +24,7 @@ export function createExportPool(options: { threads?: number; log?: Logger } = {
   const isTs = import.meta.url.endsWith(".ts");
   const needsTsx = isTs && !process.execArgv.some((a) => a.includes("tsx"));
   const piscina = new Piscina({
-    filename: new URL(`../../workers/exports.worker.${isTs ? "ts" : "js"}`, import.meta.url).href,
+    filename: new URL(`./exports.worker.${isTs ? "ts" : "js"}`, import.meta.url).href,
     execArgv: needsTsx ? [...process.execArgv, "--import", "tsx"] : undefined,
     minThreads: 0,
     maxThreads: threads,
