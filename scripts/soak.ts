@@ -11,7 +11,7 @@
 import { fork, type ChildProcess } from "node:child_process";
 import { randomUUID } from "node:crypto";
 import { createServer } from "node:net";
-import { performance } from "node:perf_hooks";
+import { monitorEventLoopDelay, performance } from "node:perf_hooks";
 
 // ---------------------------------------------------------------- load client (shared with the load test)
 
@@ -167,6 +167,9 @@ const SOAK_NETLIST = {
 };
 const SOAK_LIMITS = { rules: [{ metric: "s21_db", from: 1e6, to: 85e6, min: -1.5 }, { metric: "s21_db", from: 250e6, to: 1e9, max: -20 }] };
 
+/** The server's worst event-loop delay per 2 s report, with when it arrived (performance.now of this process). */
+const loopDelays: { t: number; maxMs: number }[] = [];
+
 /** rss and heapUsed every 2 s; liveHeap (heapUsed right after a full GC: what is really kept) every 10 s */
 interface MemorySample { t: number; rss: number; heapUsed: number; liveHeap?: number }
 
@@ -198,15 +201,19 @@ async function serve(): Promise<void> {
   const { startServer } = await import("../server/index");
   const running = await startServer(loadConfig());
   const gc = (globalThis as { gc?: () => void }).gc; // --expose-gc, given by the parent
+  // How long the server's event loop was held up, worst case per 2 s report (what a request waits for, CPU aside).
+  const loop = monitorEventLoopDelay({ resolution: 10 });
+  loop.enable();
   let tick = 0;
   const timer = setInterval(() => {
     const m = process.memoryUsage();
     let liveHeap: number | undefined;
-    if (gc && ++tick % 5 === 0) {
+    if (gc && process.env.LOTWISE_SOAK_NO_GC !== "1" && ++tick % 5 === 0) {
       gc();
       liveHeap = process.memoryUsage().heapUsed;
     }
-    process.send?.({ type: "memory", rss: m.rss, heapUsed: m.heapUsed, liveHeap });
+    process.send?.({ type: "memory", rss: m.rss, heapUsed: m.heapUsed, liveHeap, loopDelayMaxMs: loop.max / 1e6 });
+    loop.reset();
   }, 2000);
   process.send?.({ type: "ready" });
   process.on("message", (msg: { type?: string }) => {
@@ -283,20 +290,24 @@ async function soak(): Promise<void> {
       ...process.env, NODE_ENV: "production", LOTWISE_HOST: "127.0.0.1", LOTWISE_PORT: String(port),
       LOTWISE_PUBLIC_ORIGIN: origin, LOTWISE_DB_HOST: "127.0.0.1", LOTWISE_DB_PORT: String(dbPort), LOTWISE_DB_NAME: creds.name, LOTWISE_DB_USER: creds.user,
       LOTWISE_DB_PASSWORD: creds.password, LOTWISE_MAIL_SINK_PORT: String(sink.port), LOTWISE_WORKERS: workers, LOTWISE_MAX_RUNNING: fairness ? "4" : "1",
+      // the memory verdict's forced full collections (every 10 s) would show up as latency in the fairness figures
+      ...(fairness ? { LOTWISE_SOAK_NO_GC: "1" } : {}),
       LOTWISE_LOG_LEVEL: process.env.LOTWISE_LOG_LEVEL ?? "warn",
     };
     delete env.LOTWISE_SMTP_HOST; // mail goes to this script's stand-in
     const child: ChildProcess = fork(new URL(import.meta.url).pathname, ["--serve"], {
-      execArgv: ["--import", "tsx", "--expose-gc"],
+      execArgv: ["--import", "tsx", "--expose-gc", ...(process.env.LOTWISE_SOAK_TRACE_GC === "1" ? ["--trace-gc"] : [])],
       env,
       stdio: ["ignore", "inherit", "inherit", "ipc"],
     });
     const memory: MemorySample[] = [];
+    loopDelays.length = 0;
     let soakStart = 0;
     const ready = new Promise<void>((resolve, reject) => {
       child.on("message", (m: { type: string; rss?: number; heapUsed?: number; liveHeap?: number }) => {
         if (m.type === "ready") resolve();
         if (m.type === "memory" && soakStart) memory.push({ t: performance.now() - soakStart, rss: m.rss!, heapUsed: m.heapUsed!, liveHeap: m.liveHeap });
+        if (m.type === "memory") loopDelays.push({ t: performance.now(), maxMs: (m as { loopDelayMaxMs?: number }).loopDelayMaxMs ?? 0 });
       });
       child.once("exit", (code) => reject(new Error(`the server exited (${code})`)));
     });
@@ -502,6 +513,7 @@ async function fairnessScenario(client: LoadClient, cookies: string[], small: { 
       await sleep(50);
     }
   })();
+  const windowStart = performance.now();
   const replays: number[] = [];
   for (let k = 0; k < 6; k++) {
     const t = performance.now();
@@ -513,6 +525,8 @@ async function fairnessScenario(client: LoadClient, cookies: string[], small: { 
   const csvSecs = (performance.now() - tCsv) / 1000;
   sampling = false;
   await sampler;
+  await sleep(2100); // the report that covers the window's end
+  const loopMax = Math.max(0, ...loopDelays.filter((d) => d.t >= windowStart).map((d) => d.maxMs));
   await client.send("cancel", "POST", `/api/runs/${big.body.run.id}/cancel`, { cookie: a });
 
   const fmt = (xs: number[]) => xs.map((x) => x.toFixed(2)).join(", ");
@@ -523,6 +537,7 @@ Lotwise fairness (2 trial threads, 1 export thread, up to 4 runs at once, one pe
   console.log(`                                                            ${fmt(beside)} s (median ${median(beside).toFixed(2)} s, ${(median(beside) / median(alone)).toFixed(2)}× alone)`);
   console.log(`  /api/health during ${replays.length} replays (${fmt(replays.map((x) => x / 1000))} s) of a 200-part × 10,003-point run and its trials CSV (${csvSecs.toFixed(1)} s, ${String(csv.body).length} bytes):`);
   console.log(`    ${health.length} samples: p50 ${percentile(health, 50).toFixed(1)} ms, p99 ${percentile(health, 99).toFixed(1)} ms, max ${Math.max(...health).toFixed(1)} ms (${health.filter((x) => x > 100).length} over 100 ms)`);
+  console.log(`    the server's event loop was held up at most ${loopMax.toFixed(0)} ms meanwhile (monitorEventLoopDelay; the rest of a slow answer is waiting for a core)`);
   const failed = client.summary().reduce((n, r) => n + r.failed, 0);
   if (client.failures.length) console.log(`failures:\n  ${client.failures.join("\n  ")}`);
   return failed === 0 ? 0 : 1;

@@ -49,7 +49,7 @@ export async function createContext(config: ServerConfig, options: { log?: Logge
   const dispatcher = createDispatcher(config, log);
   if (dispatcher.mode === "distributed") log.info("run_dispatch_distributed", { redis: redactUrl(config.redisUrl!) });
   const runQueue = createRunQueue({ dataSource, mailer, log, config, dispatcher, maxRunning });
-  const exportPool = createExportPool({ threads: exportThreadsFromEnv(), log });
+  const exportPool = createExportPool({ threads: exportThreadsFromEnv(), log, eager: true });
   const ctx: AppContext = { config, dataSource, sessions, mailer, limiter: createSignInLimiter(), log, runQueue, exportPool };
   await runQueue.start();
   return {

@@ -19,16 +19,16 @@ export interface ExportPool {
   close(): Promise<void>;
 }
 
-export function createExportPool(options: { threads?: number; log?: Logger } = {}): ExportPool {
+export function createExportPool(options: { threads?: number; log?: Logger; /** start the threads now and keep them (the server: a thread's start holds the event loop ~0.1 s, which a request should not wait behind) */ eager?: boolean } = {}): ExportPool {
   const threads = options.threads ?? 1;
   const isTs = import.meta.url.endsWith(".ts");
   const needsTsx = isTs && !process.execArgv.some((a) => a.includes("tsx"));
   const piscina = new Piscina({
     filename: new URL(`./exports.worker.${isTs ? "ts" : "js"}`, import.meta.url).href,
     execArgv: needsTsx ? [...process.execArgv, "--import", "tsx"] : undefined,
-    minThreads: 0,
+    minThreads: options.eager ? threads : 0,
     maxThreads: threads,
-    idleTimeout: 30_000,
+    idleTimeout: 30_000, // threads above minThreads only
   });
   // An aborted running task ends its thread; piscina's 'error' events for such strays must not stop the server.
   piscina.on("error", (err: Error) => options.log?.warn("export_pool_stray_error", { message: String(err?.message ?? err).slice(0, 300) }));

@@ -4,7 +4,7 @@
  */
 import { parseArgs } from "node:util";
 import { snapToSeries } from "../../shared/engine/e-series";
-import type { ESeriesName, Netlist } from "../../shared/engine/netlist";
+import { E_SERIES_NAMES, type ESeriesName, type Netlist } from "../../shared/engine/netlist";
 import { designLMatch, synthesizeLadder, type LadderSpec } from "../../shared/engine/synthesis/index";
 import { formatSi } from "../../shared/units";
 import { choiceOption, CliUsageError, help, intOption, printJson, requireOption, siOption } from "./cli-support";
@@ -24,7 +24,6 @@ Nearest preferred value (log scale, across decades) and the relative error (snap
 
 const FAMILIES = ["butterworth", "chebyshev", "bessel"] as const;
 const TYPES = ["lowpass", "highpass", "bandpass", "bandstop"] as const;
-const SERIES = ["E3", "E6", "E12", "E24", "E48", "E96", "E192"] as const;
 
 /** synth command; returns the exit code. */
 export function synthCommand(args: string[]): number {
@@ -87,7 +86,7 @@ export function snapCommand(args: string[]): number {
   });
   if (values.help) return help(SNAP_HELP);
   if (positionals.length !== 1) throw new CliUsageError("snap needs exactly one VALUE");
-  const series = choiceOption(values, "series", SERIES) ?? (requireOption(values, "series") as ESeriesName);
+  const series = choiceOption(values, "series", E_SERIES_NAMES) ?? (requireOption(values, "series") as ESeriesName);
   const value = siOption({ value: positionals[0] }, "value") as number;
   const res = snapToSeries(value, series);
   if (values.json) printJson({ value: res.value, error: res.error });

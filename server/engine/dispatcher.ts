@@ -9,6 +9,7 @@
  * same inputs and seed give a byte-identical result: chunk aggregates merge exactly and the run is finalized in the
  * server from the merged total.
  */
+import type { DispatchHealth } from "../../shared/contracts/system";
 import type { Netlist } from "../../shared/engine/netlist";
 import type { RunResult } from "../../shared/engine/result";
 import type { RunOptions } from "../../shared/engine/run-options";
@@ -19,9 +20,7 @@ import { createTrialPool, type RunControls } from "../../workers/trial-pool";
 export { ServerStopping } from "../../workers/trial-pool";
 
 /** What health reports of the dispatcher. */
-export type DispatchStatus =
-  | { mode: "embedded"; threads: number }
-  | { mode: "distributed"; redis: "up" | "down"; workers: number | null; waitingChunks: number | null; activeChunks: number | null };
+export type DispatchStatus = DispatchHealth;
 
 /** Per-run controls; `runId` names the run's chunk jobs in distributed mode (a random id when absent). */
 export interface DispatchControls extends RunControls {

@@ -10,8 +10,8 @@ import { createRun, findRun, runDetail, runProgressRow } from "../services/runs"
 import { createRunSchema } from "../../shared/schemas/run-request";
 import { ApiRouter } from "./api-router";
 import { ACCESS } from "../../shared/contracts/access";
+import { isFinishedRunState } from "../../shared/contracts/vocabulary";
 
-const FINISHED = new Set(["done", "failed", "cancelled"]);
 /** SSE tick (ms): session check and a narrow read of the run row (progress itself comes from the queue's events). */
 const SSE_TICK_MS = 2000;
 
@@ -87,7 +87,7 @@ export function runsRoutes(ctx: AppContext): ApiRouter {
         const check = await ctx.sessions.validate(sessionToken);
         if (!check.user) return finish("signed-out");
         const run = await runProgressRow(ctx, runId);
-        if (!run || FINISHED.has(run.state)) return finish(run?.state ?? "cancelled");
+        if (!run || isFinishedRunState(run.state)) return finish(run?.state ?? "cancelled");
         const live = ctx.runQueue.live(runId);
         if (live) return send("progress", progressOf(live));
         send("progress", { state: run.state, trialsDone: run.trialsDone, trialsTotal: run.trialsTotal, ratePerSecond: null, etaSeconds: null });

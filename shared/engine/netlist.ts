@@ -8,7 +8,9 @@
 export type PartKind = "R" | "L" | "C";
 
 /** IEC 60063 preferred-number series. */
-export type ESeriesName = "E3" | "E6" | "E12" | "E24" | "E48" | "E96" | "E192";
+/** The IEC 60063 series Lotwise snaps to (E3 as the historical coarsest). */
+export const E_SERIES_NAMES = ["E3", "E6", "E12", "E24", "E48", "E96", "E192"] as const;
+export type ESeriesName = (typeof E_SERIES_NAMES)[number];
 
 /** Name of the ground node. */
 export const GROUND_NODE = "gnd";

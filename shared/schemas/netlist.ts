@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { E_SERIES_NAMES } from "../engine/netlist";
 import { DISTRIBUTIONS, MAX_GRADE_CODE_LENGTH, PART_KINDS } from "../contracts/vocabulary";
 
 /**
@@ -17,7 +18,7 @@ const nonNegative = (what: string) =>
 
 const nodeNameSchema = z.string().min(1, { message: "node name is required" }).max(64, { message: "node name is at most 64 characters" });
 
-export const eSeriesNameSchema = z.enum(["E3", "E6", "E12", "E24", "E48", "E96", "E192"]);
+export const eSeriesNameSchema = z.enum(E_SERIES_NAMES);
 
 export const portSchema = z.strictObject({
   name: z.string().min(1, { message: "port name is required" }).max(64, { message: "port name is at most 64 characters" }),
