@@ -10,7 +10,7 @@
 // The load client below (createLoadClient, percentile, runLoops) is also used by tests/integration/load.test.ts.
 import { fork, type ChildProcess } from "node:child_process";
 import { randomUUID } from "node:crypto";
-import { createServer } from "node:net";
+import { freePort } from "./worker-process";
 import { monitorEventLoopDelay, performance } from "node:perf_hooks";
 
 // ---------------------------------------------------------------- load client (shared with the load test)
@@ -181,16 +181,6 @@ function parseMinutes(argv: string[]): number {
   return n;
 }
 
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const s = createServer();
-    s.once("error", reject);
-    s.listen(0, "127.0.0.1", () => {
-      const port = (s.address() as { port: number }).port;
-      s.close(() => resolve(port));
-    });
-  });
-}
 
 const mb = (bytes: number) => (bytes / 1048576).toFixed(1);
 const mean = (xs: number[]) => xs.reduce((a, b) => a + b, 0) / Math.max(1, xs.length);
