@@ -33,7 +33,7 @@ function planOf(run: RunInputs, trials: number): RunPlan {
 
 export default function runExportTask(task: ExportTask): ExportResult {
   try {
-    if (task.kind === "replay") return { ok: trialReplayView(task.run, task.index) };
+    if (task.kind === "replay") return { ok: trialReplayView(task.run, task.index, planOf(task.run, Math.max(task.run.options.trials ?? 1, task.index + 1))) };
     if (task.kind === "csv") return { ok: trialCsvRows(planOf(task.run, task.trials), task.start, task.count) };
     return { ok: runTouchstoneText(planOf(task.run, task.trials), task.index, { runId: task.runId }) };
   } catch (err) {

@@ -279,7 +279,16 @@ export interface TrialReplay {
  */
 export function replayTrial(netlist: Netlist, limits: unknown, options: Partial<RunOptions>, seed: RunSeed, index: number): TrialReplay {
   if (!Number.isInteger(index) || index < 0) throw new EngineError("INVALID_INPUT", "`index` must be an integer ≥ 0", { path: "index" });
-  const plan = planRun(netlist, limits, { ...options, seed, trials: Math.max(options.trials ?? 1, index + 1) });
+  return replayTrialOnPlan(planRun(netlist, limits, { ...options, seed, trials: Math.max(options.trials ?? 1, index + 1) }), index);
+}
+
+/**
+ * replayTrial on a plan already built for the run (its `trials` must cover `index`): the export thread keeps the plans
+ * of recent runs, so browsing a run's trials does not re-solve its nominal response each time.
+ * @throws EngineError INVALID_INPUT for an index outside the plan's trials
+ */
+export function replayTrialOnPlan(plan: RunPlan, index: number): TrialReplay {
+  if (!Number.isInteger(index) || index < 0 || index >= plan.options.trials) throw new EngineError("INVALID_INPUT", "`index` must be an integer within the run's trials", { path: "index" });
   const P = plan.sampling.partCount;
   const values = new Float64Array(P);
   const deviations = new Float64Array(P);

@@ -5,7 +5,7 @@
  * (workers/exports.worker.ts), never on the thread that answers requests.
  */
 import { writeTouchstone } from "./touchstone";
-import { replayTrial } from "../engine/monte-carlo";
+import { replayTrial, replayTrialOnPlan } from "../engine/monte-carlo";
 import type { Netlist } from "../engine/netlist";
 import { createTrialStream } from "../engine/random";
 import type { RunOptions } from "../engine/run-options";
@@ -32,9 +32,9 @@ export function csvNumber(x: number): string {
 }
 
 /** The body of GET /api/runs/:id/trials/:index: one trial replayed exactly from the seed, shown at 25 °C (or the first corner). */
-export function trialReplayView(run: RunInputs, index: number) {
+export function trialReplayView(run: RunInputs, index: number, plan?: RunPlan) {
   const options = run.options;
-  const replay = replayTrial(run.netlist, run.limits, options, options.seed, index);
+  const replay = plan ? replayTrialOnPlan(plan, index) : replayTrial(run.netlist, run.limits, options, options.seed, index);
   const rules = run.limits.rules;
   const shown = replay.corners.find((c) => c.tempC === 25) ?? replay.corners[0];
   const sDb: Record<string, number[]> = {};
