@@ -2,7 +2,7 @@ import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, Primary
 import { DesignRevision, type ReviewState } from "./design-revision.entity";
 import { User } from "./user.entity";
 
-/** One step of a revision's review (requested, approved, changes requested), with the reviewer's words. */
+/** One step of a revision's sign-off (submitted, signed off, returned for rework), with the person's note. */
 @Entity({ name: "review_event" })
 @Index("IDX_REVIEW_EVENT_REVISION", ["revisionId", "createdAt"])
 export class ReviewEvent {

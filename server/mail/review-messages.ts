@@ -11,25 +11,25 @@ interface RevisionNames {
 
 const quoted = (comment: string) => (comment ? `\n\nTheir note:\n> ${comment.split("\n").join("\n> ")}` : "");
 
-/** To each active reviewer when a designer asks for a review. */
+/** To each active reviewer when a designer submits a revision for sign-off. */
 export function reviewRequestedMail(options: RevisionNames & { to: string; requestedBy: string; comment: string }): OutgoingMail {
   return {
     to: options.to,
-    subject: `Review requested: ${options.designName} r${options.revisionNumber}`,
+    subject: `Sign-off requested: ${options.designName} r${options.revisionNumber}`,
     text:
-      `${options.requestedBy} asks for a review of ${options.designName}, revision ${options.revisionNumber}.` +
+      `${options.requestedBy} submits ${options.designName}, revision ${options.revisionNumber}, for sign-off.` +
       quoted(options.comment) +
-      `\n\nOpen it, read its runs, then approve or request changes:\n${options.link}` +
+      `\n\nOpen it, read its runs, then sign it off or return it for rework:\n${options.link}` +
       SIGNATURE,
   };
 }
 
 /** To the revision's creator and whoever asked for the review when a reviewer decides. */
-export function reviewDecidedMail(options: RevisionNames & { to: string; reviewer: string; decision: "approved" | "changes-requested"; comment: string }): OutgoingMail {
-  const verdict = options.decision === "approved" ? "approved" : "requested changes to";
+export function reviewDecidedMail(options: RevisionNames & { to: string; reviewer: string; decision: "signed-off" | "returned"; comment: string }): OutgoingMail {
+  const verdict = options.decision === "signed-off" ? "signed off" : "returned for rework";
   return {
     to: options.to,
-    subject: `${options.decision === "approved" ? "Approved" : "Changes requested"}: ${options.designName} r${options.revisionNumber}`,
+    subject: `${options.decision === "signed-off" ? "Signed off" : "Returned for rework"}: ${options.designName} r${options.revisionNumber}`,
     text: `${options.reviewer} ${verdict} ${options.designName}, revision ${options.revisionNumber}.` + quoted(options.comment) + `\n\n${options.link}` + SIGNATURE,
   };
 }

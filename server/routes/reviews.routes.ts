@@ -65,7 +65,7 @@ export function reviewsRoutes(ctx: AppContext): ApiRouter {
     },
   });
 
-  // Route access lets both roles in; the action's own role is checked by the service ("approve" by a designer → 403).
+  // Route access lets both roles in; the action's own role is checked by the service ("sign-off" by a designer → 403).
   api.post<ReviewActionInput>("/revisions/:id/review", {
     access: ACCESS.reviewRevisions,
     body: reviewActionSchema,

@@ -12,6 +12,7 @@ import type { SweepSetting } from "../entities/design-revision.entity";
 import { DEFAULT_STRESS_CLASS } from "../../shared/contracts/vocabulary";
 import type { StressClass } from "../entities/design.entity";
 import { AppError, notFound } from "../errors";
+import { REVIEW_STATE_WORDS } from "../../shared/contracts/vocabulary";
 import {
   presentDesign, presentLimitSetSummary, presentMeasuredSummary, presentRevisionSummary, type LatestRevisionView, type LatestYieldView,
 } from "../presenters/design.presenter";
@@ -204,7 +205,7 @@ export async function replaceRevision(ctx: AppContext, id: string, input: Omit<R
     const revision = await m.getRepository(DesignRevision).createQueryBuilder("r").setLock("pessimistic_write").where("r.id = :id", { id }).getOne();
     if (!revision) throw notFound("That revision");
     if (revision.reviewState !== "draft") {
-      throw new AppError("REVISION_LOCKED", `Revision ${revision.number} is frozen because it is ${revision.reviewState.replace("-", " ")}; make a new revision from this one.`);
+      throw new AppError("REVISION_LOCKED", `Revision ${revision.number} is frozen because it is ${REVIEW_STATE_WORDS[revision.reviewState]}; make a new revision from this one.`);
     }
     if (revision.locked || (await m.getRepository(Run).existsBy({ revisionId: id }))) {
       throw new AppError("REVISION_LOCKED", `Revision ${revision.number} is locked because a run uses it; make a new revision from this one.`);

@@ -4,6 +4,7 @@ import type { AuthUser } from "../auth/sessions";
 import type { AppContext } from "../context";
 import { Design, DesignRevision, ReviewEvent, Run, RunComment, User } from "../entities";
 import { AppError, notFound } from "../errors";
+import { REVIEW_STATE_WORDS, type ReviewState } from "../../shared/contracts/vocabulary";
 import type { OutgoingMail } from "../mail/mailer";
 import { reviewDecidedMail, reviewRequestedMail } from "../mail/review-messages";
 import { presentComment, presentReviewEvent } from "../presenters/review.presenter";
@@ -43,17 +44,18 @@ export async function getReview(ctx: AppContext, revisionId: string) {
 export async function applyReviewAction(ctx: AppContext, actor: AuthUser, revisionId: string, input: ReviewActionInput) {
   const rule = REVIEW_TRANSITIONS[input.action];
   if (!actor.roles.includes(rule.role)) {
-    throw new AppError("FORBIDDEN", `Only a ${rule.role} can ${rule.verb}${rule.role === "reviewer" ? " a revision" : ""}.`);
+    throw new AppError("FORBIDDEN", `Only a ${rule.role} can ${rule.verb.replace(/\bit\b/, "a revision")}.`);
   }
   const comment = input.comment ?? "";
   const revision = await ctx.dataSource.transaction(async (m) => {
     const rev = await m.getRepository(DesignRevision).findOne({ where: { id: revisionId }, lock: { mode: "pessimistic_write" } });
     if (!rev) throw notFound("That revision");
     if (!rule.from.includes(rev.reviewState)) {
-      throw new AppError("REVIEW_STATE", `This revision is ${rev.reviewState}; to ${rule.verb} it must be ${rule.from.join(" or ")}.`);
+      const words = (state: ReviewState) => REVIEW_STATE_WORDS[state];
+      throw new AppError("REVIEW_STATE", `This revision is ${words(rev.reviewState)}; to ${rule.verb} it must be ${rule.from.map(words).join(" or ")}.`);
     }
-    // Asking for a review freezes the revision for good (what was reviewed is what gets approved, and what was
-    // approved is what gets built): any later change is a new revision. Sent back, it stays frozen too.
+    // Submitting for sign-off freezes the revision for good (what was reviewed is what gets signed off, and what was
+    // signed off is what gets built): any later change is a new revision. Returned for rework, it stays frozen too.
     await m.getRepository(DesignRevision).update({ id: rev.id }, { reviewState: rule.to, locked: true });
     await m.getRepository(ReviewEvent).insert({ id: randomUUID(), revisionId: rev.id, actorId: actor.id, fromState: rev.reviewState, toState: rule.to, comment });
     return rev;
@@ -71,14 +73,14 @@ async function mailPeopleInvolved(ctx: AppContext, actor: AuthUser, revision: De
     link: `${ctx.config.publicOrigin}/designs/${design.id}?revision=${encodeURIComponent(revision.id)}`,
   };
   let mails: OutgoingMail[];
-  if (action === "request") {
+  if (action === "submit") {
     const reviewers = (await users.findBy({ active: true })).filter((u) => u.roles.includes("reviewer") && u.id !== actor.id);
     mails = reviewers.map((u) => reviewRequestedMail({ ...names, to: u.email, requestedBy: actor.name, comment }));
   } else {
-    const lastRequest = await ctx.dataSource.getRepository(ReviewEvent).findOne({ where: { revisionId: revision.id, toState: "in-review" }, order: { createdAt: "DESC" } });
+    const lastRequest = await ctx.dataSource.getRepository(ReviewEvent).findOne({ where: { revisionId: revision.id, toState: "awaiting-signoff" }, order: { createdAt: "DESC" } });
     const ids = [...new Set([revision.createdById, lastRequest?.actorId].filter((id): id is string => Boolean(id) && id !== actor.id))];
     const people = ids.length ? await users.findBy({ id: In(ids), active: true }) : [];
-    const decision = REVIEW_TRANSITIONS[action].to as "approved" | "changes-requested";
+    const decision = REVIEW_TRANSITIONS[action].to as "signed-off" | "returned";
     mails = people.map((u) => reviewDecidedMail({ ...names, to: u.email, reviewer: actor.name, decision, comment }));
   }
   for (const mail of mails) {

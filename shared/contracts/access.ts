@@ -25,14 +25,14 @@ export const ACCESS = {
 } as const satisfies Record<string, readonly Role[]>;
 
 /**
- * A revision's review: draft → in-review (a designer asks) → approved | changes-requested (only a reviewer
- * decides); changes-requested → in-review again when the designer asks anew. Approved is final for that
+ * A revision's sign-off: draft → awaiting-signoff (a designer submits it) → signed-off | returned (only a reviewer
+ * decides); returned → awaiting-signoff again when the designer submits anew. Signed off is final for that
  * revision (changes go into a new revision). The server enforces it; the review panel offers only what it allows.
  */
 export const REVIEW_TRANSITIONS: Record<ReviewAction, { role: Role; from: readonly ReviewState[]; to: ReviewState; verb: string }> = {
-  request: { role: "designer", from: ["draft", "changes-requested"], to: "in-review", verb: "ask for a review" },
-  approve: { role: "reviewer", from: ["in-review"], to: "approved", verb: "approve" },
-  "request-changes": { role: "reviewer", from: ["in-review"], to: "changes-requested", verb: "request changes" },
+  submit: { role: "designer", from: ["draft", "returned"], to: "awaiting-signoff", verb: "submit it for sign-off" },
+  "sign-off": { role: "reviewer", from: ["awaiting-signoff"], to: "signed-off", verb: "sign it off" },
+  return: { role: "reviewer", from: ["awaiting-signoff"], to: "returned", verb: "return it for rework" },
 };
 
 /** True when a holder of `roles` may take `action` on a revision in `state`. */

@@ -14,16 +14,19 @@ export function isFinishedRunState(state: RunState): boolean {
   return FINISHED_RUN_STATES.includes(state);
 }
 
-/** A revision's review: draft → in-review → approved | changes-requested (changes-requested → in-review again). */
-export const REVIEW_STATES = ["draft", "in-review", "approved", "changes-requested"] as const;
+/**
+ * A revision's sign-off, in hardware release terms: draft → awaiting-signoff (the designer submits it) → signed-off |
+ * returned (a reviewer signs it off or returns it for rework); returned → awaiting-signoff again on a new submission.
+ */
+export const REVIEW_STATES = ["draft", "awaiting-signoff", "signed-off", "returned"] as const;
 export type ReviewState = (typeof REVIEW_STATES)[number];
 
 /** What a person may do to a revision's review (who may do which is in ./access.ts). */
-export const REVIEW_ACTIONS = ["request", "approve", "request-changes"] as const;
+export const REVIEW_ACTIONS = ["submit", "sign-off", "return"] as const;
 export type ReviewAction = (typeof REVIEW_ACTIONS)[number];
 
 /** The badge tone of each review state (the client's Badge tones). */
-export const REVIEW_STATE_TONE = { draft: "muted", "in-review": "signal", approved: "pass", "changes-requested": "fault" } as const satisfies Record<
+export const REVIEW_STATE_TONE = { draft: "muted", "awaiting-signoff": "signal", "signed-off": "pass", returned: "fault" } as const satisfies Record<
   ReviewState,
   string
 >;
@@ -31,9 +34,9 @@ export const REVIEW_STATE_TONE = { draft: "muted", "in-review": "signal", approv
 /** Each review state in words, as the screens and mails say it. */
 export const REVIEW_STATE_WORDS: Record<ReviewState, string> = {
   draft: "draft",
-  "in-review": "in review",
-  approved: "approved",
-  "changes-requested": "changes requested",
+  "awaiting-signoff": "awaiting sign-off",
+  "signed-off": "signed off",
+  returned: "returned for rework",
 };
 
 /** How the filter is used; mains and high-power RF get a safety caution beside every result. */

@@ -24,7 +24,7 @@ beforeAll(async () => {
   const { agent: designer } = await e.t.signedInAgent(["designer"]);
   // A transmitter output filter: the dashboard must show the stronger high-power caution.
   await designer.patch(`/api/designs/${design.designId}`).set("Origin", ORIGIN).send({ stress: "high-power-rf" }).expect(200);
-  await designer.post(`/api/revisions/${design.revisionId}/review`).set("Origin", ORIGIN).send({ action: "request", comment: "ready for release" }).expect(200);
+  await designer.post(`/api/revisions/${design.revisionId}/review`).set("Origin", ORIGIN).send({ action: "submit", comment: "ready for release" }).expect(200);
 }, 120_000);
 
 afterAll(async () => {
@@ -47,7 +47,7 @@ describe("reviewer in the browser", () => {
 
     await table.getByRole("link", { name: "release check" }).click();
     await page.getByTestId("yield-value").waitFor({ timeout: 15_000 });
-    await page.getByText("in review").first().waitFor();
+    await page.getByText("awaiting sign-off").first().waitFor();
     expect(await page.getByRole("button", { name: "Rerun with this change" }).count()).toBe(0);
     await page.getByText("High-power RF filter: this is an estimate, not a certification").waitFor();
 
@@ -55,17 +55,19 @@ describe("reviewer in the browser", () => {
     await page.getByRole("button", { name: "Post comment" }).click();
     await page.getByRole("list", { name: "Comments" }).getByText("passband match is the rule to watch").waitFor();
 
-    await page.getByLabel("Note with the decision (optional)").fill("Approved for the first lot.");
-    await page.getByRole("button", { name: "Approve revision" }).click();
-    await page.getByRole("list", { name: "Review trail" }).getByText("approved", { exact: true }).waitFor();
-    expect(await page.getByRole("button", { name: "Approve revision" }).count()).toBe(0);
+    await page.getByLabel("Note with the decision (optional)").fill("Signed off for the first lot.");
+    await page.getByRole("button", { name: "Sign off revision" }).click();
+    await page.getByRole("list", { name: "Review trail" }).getByText("signed off", { exact: true }).waitFor();
+    expect(await page.getByRole("button", { name: "Sign off revision" }).count()).toBe(0);
+    // the review speaks our own words: none of the code-hosting review wording is left on the page
+    expect(await page.locator("body").innerText()).not.toMatch(/Approve|Request changes|changes requested|in review/);
     await page.waitForTimeout(500);
-    await page.screenshot({ path: `${ARTIFACTS}/reviewer-2-approved.png`, fullPage: true });
+    await page.screenshot({ path: `${ARTIFACTS}/reviewer-2-signed-off.png`, fullPage: true });
 
     const { agent } = await e.t.signedInAgent(["reviewer"]);
     const design = e.demo.designs.find((d) => d.name === "VHF harmonic low-pass")!;
     const review = await agent.get(`/api/revisions/${design.revisionId}/review`).expect(200);
-    expect(review.body.reviewState).toBe("approved");
+    expect(review.body.reviewState).toBe("signed-off");
     const comments = await agent.get(`/api/runs/${runId}/comments`).expect(200);
     expect(comments.body.comments.map((c: { body: string }) => c.body)).toEqual([expect.stringContaining("rule to watch")]);
     expect(e.foreign).toEqual([]);

@@ -4,7 +4,7 @@ import { ReviewEvent, type User } from "../../server/entities";
 import { createTestContext, ORIGIN, TEST_PASSWORD, type TestContext } from "../helpers/test-context";
 import { makeDesign, makeRun } from "./access-samples/reviews";
 
-// Run comments and the revision review (draft → in-review → approved | changes-requested), with its mails.
+// Run comments and the revision sign-off (draft → awaiting-signoff → signed-off | returned), with its mails.
 
 type Agent = ReturnType<typeof request.agent>;
 let t: TestContext;
@@ -60,83 +60,83 @@ describe("run comments", () => {
 });
 
 describe("revision review", () => {
-  it("goes draft → in-review → approved, storing each step and mailing the people involved", async () => {
+  it("goes draft → awaiting-signoff → signed-off, storing each step and mailing the people involved", async () => {
     const f = await makeDesign(t, designer.user, { name: "Preselector" });
     const path = `/api/revisions/${f.revision.id}/review`;
     expect((await reviewer.agent.get(path).expect(200)).body).toEqual({ reviewState: "draft", events: [] });
 
-    const asked = await post(designer.agent, path).send({ action: "request", comment: "Ready for a look." }).expect(200);
-    expect(asked.body.reviewState).toBe("in-review");
+    const asked = await post(designer.agent, path).send({ action: "submit", comment: "Ready for a look." }).expect(200);
+    expect(asked.body.reviewState).toBe("awaiting-signoff");
     // every active reviewer hears of it, the inactive one does not
     for (const r of [reviewer.user, otherReviewer]) {
-      const [mail] = await mailsTo(r, "Review requested: Preselector r1");
-      expect(mail.text).toContain("Dana Designer asks for a review of Preselector, revision 1.");
+      const [mail] = await mailsTo(r, "Sign-off requested: Preselector r1");
+      expect(mail.text).toContain("Dana Designer submits Preselector, revision 1, for sign-off.");
       expect(mail.text).toContain("> Ready for a look.");
       expect(mail.text).toContain(`${ORIGIN}/designs/${f.design.id}?revision=${f.revision.id}`);
     }
-    expect(await mailsTo(inactiveReviewer, "Review requested: Preselector r1")).toEqual([]);
+    expect(await mailsTo(inactiveReviewer, "Sign-off requested: Preselector r1")).toEqual([]);
 
-    const approved = await post(reviewer.agent, path).send({ action: "approve", comment: "Margins fine." }).expect(200);
-    expect(approved.body.reviewState).toBe("approved");
+    const approved = await post(reviewer.agent, path).send({ action: "sign-off", comment: "Margins fine." }).expect(200);
+    expect(approved.body.reviewState).toBe("signed-off");
     expect(approved.body.events.map((e: { fromState: string; toState: string; actor: { name: string }; comment: string }) => [e.fromState, e.toState, e.actor.name, e.comment])).toEqual([
-      ["draft", "in-review", "Dana Designer", "Ready for a look."],
-      ["in-review", "approved", "Rui Reviewer", "Margins fine."],
+      ["draft", "awaiting-signoff", "Dana Designer", "Ready for a look."],
+      ["awaiting-signoff", "signed-off", "Rui Reviewer", "Margins fine."],
     ]);
     expect(await t.ctx.dataSource.getRepository(ReviewEvent).countBy({ revisionId: f.revision.id })).toBe(2);
-    const [decided] = await mailsTo(designer.user, "Approved: Preselector r1");
-    expect(decided.text).toContain("Rui Reviewer approved Preselector, revision 1.");
-    expect(await mailsTo(reviewer.user, "Approved: Preselector r1")).toEqual([]); // not to the reviewer themself
-    expect((await designer.agent.get(path).expect(200)).body.reviewState).toBe("approved");
+    const [decided] = await mailsTo(designer.user, "Signed off: Preselector r1");
+    expect(decided.text).toContain("Rui Reviewer signed off Preselector, revision 1.");
+    expect(await mailsTo(reviewer.user, "Signed off: Preselector r1")).toEqual([]); // not to the reviewer themself
+    expect((await designer.agent.get(path).expect(200)).body.reviewState).toBe("signed-off");
   });
 
-  it("sends back with changes requested, then may be asked again; the requester is mailed too", async () => {
+  it("returns it for rework, then it may be submitted again; the submitter is mailed too", async () => {
     const f = await makeDesign(t, designer.user, { name: "Notch" });
     const path = `/api/revisions/${f.revision.id}/review`;
     const second = await t.buildUser({ roles: ["designer"], name: "Sam Second" });
     const secondAgent = await agentFor(second);
-    await post(secondAgent, path).send({ action: "request" }).expect(200);
-    const back = await post(reviewer.agent, path).send({ action: "request-changes", comment: "C3 at ±10 % fails the stopband." }).expect(200);
-    expect(back.body.reviewState).toBe("changes-requested");
+    await post(secondAgent, path).send({ action: "submit" }).expect(200);
+    const back = await post(reviewer.agent, path).send({ action: "return", comment: "C3 at ±10 % fails the stopband." }).expect(200);
+    expect(back.body.reviewState).toBe("returned");
     for (const u of [designer.user, second]) {
-      const [mail] = await mailsTo(u, "Changes requested: Notch r1");
-      expect(mail.text).toContain("Rui Reviewer requested changes to Notch, revision 1.");
+      const [mail] = await mailsTo(u, "Returned for rework: Notch r1");
+      expect(mail.text).toContain("Rui Reviewer returned for rework Notch, revision 1.");
       expect(mail.text).toContain("> C3 at ±10 % fails the stopband.");
     }
-    expect((await post(designer.agent, path).send({ action: "request" }).expect(200)).body.reviewState).toBe("in-review");
+    expect((await post(designer.agent, path).send({ action: "submit" }).expect(200)).body.reviewState).toBe("awaiting-signoff");
     expect((await designer.agent.get(path).expect(200)).body.events).toHaveLength(3);
   });
 
   it("lets only a reviewer decide and only a designer ask (403 with a clear message), planners not at all", async () => {
     const f = await makeDesign(t, designer.user);
     const path = `/api/revisions/${f.revision.id}/review`;
-    const asReviewerAsking = await post(reviewer.agent, path).send({ action: "request" }).expect(403);
-    expect(asReviewerAsking.body.error).toEqual({ code: "FORBIDDEN", message: "Only a designer can ask for a review." });
-    await post(designer.agent, path).send({ action: "request" }).expect(200);
-    for (const action of ["approve", "request-changes"]) {
+    const asReviewerAsking = await post(reviewer.agent, path).send({ action: "submit" }).expect(403);
+    expect(asReviewerAsking.body.error).toEqual({ code: "FORBIDDEN", message: "Only a designer can submit a revision for sign-off." });
+    await post(designer.agent, path).send({ action: "submit" }).expect(200);
+    for (const action of ["sign-off", "return"]) {
       const res = await post(designer.agent, path).send({ action }).expect(403);
       expect(res.body.error.code).toBe("FORBIDDEN");
-      expect(res.body.error.message).toMatch(/^Only a reviewer can (approve|request changes) a revision\.$/);
+      expect(res.body.error.message).toMatch(/^Only a reviewer can (sign a revision off|return a revision for rework)\.$/);
     }
     const planner = await t.signedInAgent(["planner"]);
-    expect((await post(planner.agent, path).send({ action: "approve" }).expect(403)).body.error.message).toBe("This needs the designer or reviewer role.");
-    await request(t.app).post(path).set("Origin", ORIGIN).send({ action: "approve" }).expect(401);
+    expect((await post(planner.agent, path).send({ action: "sign-off" }).expect(403)).body.error.message).toBe("This needs the designer or reviewer role.");
+    await request(t.app).post(path).set("Origin", ORIGIN).send({ action: "sign-off" }).expect(401);
     // someone holding both roles may do both
     const both = await t.signedInAgent(["designer", "reviewer"]);
-    expect((await post(both.agent, path).send({ action: "approve" }).expect(200)).body.reviewState).toBe("approved");
+    expect((await post(both.agent, path).send({ action: "sign-off" }).expect(200)).body.reviewState).toBe("signed-off");
   });
 
   it("answers 409 REVIEW_STATE on a wrong transition, and stores nothing", async () => {
     const f = await makeDesign(t, designer.user);
     const path = `/api/revisions/${f.revision.id}/review`;
-    const early = await post(reviewer.agent, path).send({ action: "approve" }).expect(409);
-    expect(early.body.error).toEqual({ code: "REVIEW_STATE", message: "This revision is draft; to approve it must be in-review." });
-    await post(designer.agent, path).send({ action: "request" }).expect(200);
-    expect((await post(designer.agent, path).send({ action: "request" }).expect(409)).body.error.message).toBe(
-      "This revision is in-review; to ask for a review it must be draft or changes-requested.",
+    const early = await post(reviewer.agent, path).send({ action: "sign-off" }).expect(409);
+    expect(early.body.error).toEqual({ code: "REVIEW_STATE", message: "This revision is draft; to sign it off it must be awaiting sign-off." });
+    await post(designer.agent, path).send({ action: "submit" }).expect(200);
+    expect((await post(designer.agent, path).send({ action: "submit" }).expect(409)).body.error.message).toBe(
+      "This revision is awaiting sign-off; to submit it for sign-off it must be draft or returned for rework.",
     );
-    await post(reviewer.agent, path).send({ action: "approve" }).expect(200);
-    await post(reviewer.agent, path).send({ action: "request-changes" }).expect(409);
-    await post(designer.agent, path).send({ action: "request" }).expect(409);
+    await post(reviewer.agent, path).send({ action: "sign-off" }).expect(200);
+    await post(reviewer.agent, path).send({ action: "return" }).expect(409);
+    await post(designer.agent, path).send({ action: "submit" }).expect(409);
     expect(await t.ctx.dataSource.getRepository(ReviewEvent).countBy({ revisionId: f.revision.id })).toBe(2);
   });
 
@@ -144,10 +144,10 @@ describe("revision review", () => {
     const f = await makeDesign(t, designer.user);
     const path = `/api/revisions/${f.revision.id}/review`;
     const bad = await post(designer.agent, path).send({ action: "merge" }).expect(400);
-    expect(bad.body.error.fields).toEqual({ action: "action must be one of request, approve, request-changes" });
-    const long = await post(designer.agent, path).send({ action: "request", comment: "y".repeat(2001) }).expect(400);
+    expect(bad.body.error.fields).toEqual({ action: "action must be one of submit, sign-off, return" });
+    const long = await post(designer.agent, path).send({ action: "submit", comment: "y".repeat(2001) }).expect(400);
     expect(Object.keys(long.body.error.fields)).toEqual(["comment"]);
-    await post(designer.agent, "/api/revisions/3b241101-e2bb-4255-8caf-4136c566a962/review").send({ action: "request" }).expect(404);
+    await post(designer.agent, "/api/revisions/3b241101-e2bb-4255-8caf-4136c566a962/review").send({ action: "submit" }).expect(404);
     await designer.agent.get("/api/revisions/3b241101-e2bb-4255-8caf-4136c566a962/review").expect(404);
   });
 });

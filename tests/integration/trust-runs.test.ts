@@ -62,16 +62,16 @@ const runRow = (id: string) => t.ctx.dataSource.getRepository(Run).findOneByOrFa
 
 describe("review states freeze the revision (fault 1)", () => {
   // Before: PUT on an approved (or in-review) revision answered 200 and changed its values.
-  it("refuses an edit while in review, after approval and after changes were asked, with 409 and nothing changed", async () => {
+  it("refuses an edit while awaiting sign-off, after sign-off and after a return for rework, with 409 and nothing changed", async () => {
     const f = await makeRunFixture(t, designer.user);
     const path = `/api/revisions/${f.revision.id}`;
-    await post(designer.agent, `${path}/review`).send({ action: "request" }).expect(200);
+    await post(designer.agent, `${path}/review`).send({ action: "submit" }).expect(200);
     const inReview = await put(designer.agent, path).send({ netlist: changedNetlist(LOWPASS, 3) }).expect(409);
     expect(inReview.body.error).toMatchObject({ code: "REVISION_LOCKED" });
-    expect(inReview.body.error.message).toMatch(/in review.*new revision/);
-    await post(reviewer.agent, `${path}/review`).send({ action: "approve", comment: "ok" }).expect(200);
+    expect(inReview.body.error.message).toMatch(/awaiting sign-off.*new revision/);
+    await post(reviewer.agent, `${path}/review`).send({ action: "sign-off", comment: "ok" }).expect(200);
     const approved = await put(designer.agent, path).send({ netlist: changedNetlist(LOWPASS, 3) }).expect(409);
-    expect(approved.body.error.message).toMatch(/approved/);
+    expect(approved.body.error.message).toMatch(/signed off/);
     const stored = await t.ctx.dataSource.getRepository(DesignRevision).findOneByOrFail({ id: f.revision.id });
     expect(stored.netlist).toEqual(LOWPASS);
     expect(stored.locked).toBe(true);
@@ -80,8 +80,8 @@ describe("review states freeze the revision (fault 1)", () => {
     expect(copy.body.revision).toMatchObject({ number: 2, reviewState: "draft", locked: false });
 
     const g = await makeRunFixture(t, designer.user);
-    await post(designer.agent, `/api/revisions/${g.revision.id}/review`).send({ action: "request" }).expect(200);
-    await post(reviewer.agent, `/api/revisions/${g.revision.id}/review`).send({ action: "request-changes", comment: "C1?" }).expect(200);
+    await post(designer.agent, `/api/revisions/${g.revision.id}/review`).send({ action: "submit" }).expect(200);
+    await post(reviewer.agent, `/api/revisions/${g.revision.id}/review`).send({ action: "return", comment: "C1?" }).expect(200);
     await put(designer.agent, `/api/revisions/${g.revision.id}`).send({ netlist: changedNetlist(LOWPASS, 2) }).expect(409);
   });
 });
@@ -123,7 +123,7 @@ describe("fields the server owns are refused, not ignored", () => {
     const run = await insertRun(t, analyst.user, "done", 10);
     const cases: [Agent, "post" | "patch", string, Record<string, unknown>, string][] = [
       [analyst.agent, "post", `/api/runs/${run.id}/comments`, { body: "fine", authorId: admin.user.id }, "authorId"],
-      [designer.agent, "post", `/api/revisions/${f.revision.id}/review`, { action: "request", actorId: reviewer.user.id }, "actorId"],
+      [designer.agent, "post", `/api/revisions/${f.revision.id}/review`, { action: "submit", actorId: reviewer.user.id }, "actorId"],
       [analyst.agent, "post", "/api/sweeps", { revisionId: f.revision.id, limitSetId: f.limitSet.id, trials: 10, targetYield: 0.5, createdById: admin.user.id, assignments: [{ label: "a", gradeOverrides: {} }] }, "createdById"],
       [analyst.agent, "post", "/api/sweeps", { revisionId: f.revision.id, limitSetId: f.limitSet.id, trials: 10, targetYield: 0.5, assignments: [{ label: "a", gradeOverrides: {}, sweepId: randomUUID() }] }, "assignments[0].sweepId"],
       [admin.agent, "post", "/api/team/invitations", { email: "x-owned@lotwise.test", roles: ["analyst"], invitedById: analyst.user.id }, "invitedById"],

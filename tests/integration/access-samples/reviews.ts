@@ -112,11 +112,11 @@ export const reviewsSamples: SampleTable = {
   "get /runs/:id/comments": async (t, caller) => ({ path: `/api/runs/${(await makeRun(t, await makeDesign(t, caller), caller)).id}/comments` }),
   "post /runs/:id/comments": async (t, caller) => ({ path: `/api/runs/${(await makeRun(t, await makeDesign(t, caller), caller)).id}/comments`, body: { body: "Looks marginal at 70 MHz." } }),
   "get /revisions/:id/review": async (t, caller) => ({ path: `/api/revisions/${(await makeDesign(t, caller)).revision.id}/review` }),
-  // A designer asks for a review of a draft; a reviewer approves one already in review.
+  // A designer submits a draft for sign-off; a reviewer signs off one already awaiting it.
   "post /revisions/:id/review": async (t, caller) => {
     const asDesigner = caller.roles.includes("designer");
-    const f = await makeDesign(t, caller, { reviewState: asDesigner ? "draft" : "in-review" });
-    return { path: `/api/revisions/${f.revision.id}/review`, body: { action: asDesigner ? "request" : "approve", comment: "sample" } };
+    const f = await makeDesign(t, caller, { reviewState: asDesigner ? "draft" : "awaiting-signoff" });
+    return { path: `/api/revisions/${f.revision.id}/review`, body: { action: asDesigner ? "submit" : "sign-off", comment: "sample" } };
   },
   "post /sweeps": async (t, caller) => {
     const f = await makeDesign(t, caller);

@@ -8,15 +8,15 @@ import { formatDateTime } from "@/utils/format";
 
 /**
  * The revision's review: its state and trail, and the moves the signed-in person may make —
- * a designer asks for review (draft or changes requested), a reviewer approves or sends it back (in review).
+ * a designer submits it for sign-off (draft or returned), a reviewer signs it off or returns it for rework.
  */
 export function ReviewPanel({ revisionId, revisionNumber, roles }: { revisionId: string; revisionNumber: number | null; roles: readonly Role[] }) {
   const review = useReview(revisionId);
   const act = useReviewAction(revisionId);
   const [comment, setComment] = useState("");
   const state = review.data.reviewState;
-  const canRequest = mayTakeReviewAction(roles, "request", state);
-  const canDecide = mayTakeReviewAction(roles, "approve", state);
+  const canRequest = mayTakeReviewAction(roles, "submit", state);
+  const canDecide = mayTakeReviewAction(roles, "sign-off", state);
   const run = (action: ReviewAction) => act.mutate({ action, comment: comment.trim() || undefined }, { onSuccess: () => setComment("") });
 
   return (
@@ -44,15 +44,15 @@ export function ReviewPanel({ revisionId, revisionNumber, roles }: { revisionId:
           <textarea id="review-note" rows={2} value={comment} onChange={(e) => setComment(e.target.value)}
             className="rounded-md border border-ink-600 bg-ink-950 px-3 py-2 text-sm text-paper-50 focus-visible:outline-2 focus-visible:outline-signal-400" />
           <div className="flex flex-wrap gap-2">
-            {canRequest && <Button pending={act.isPending} onClick={() => run("request")}>Ask for review</Button>}
-            {canDecide && <Button pending={act.isPending} onClick={() => run("approve")}>Approve revision</Button>}
-            {canDecide && <Button variant="danger" pending={act.isPending} onClick={() => run("request-changes")}>Send back for changes</Button>}
+            {canRequest && <Button pending={act.isPending} onClick={() => run("submit")}>Submit for sign-off</Button>}
+            {canDecide && <Button pending={act.isPending} onClick={() => run("sign-off")}>Sign off revision</Button>}
+            {canDecide && <Button variant="danger" pending={act.isPending} onClick={() => run("return")}>Return for rework</Button>}
           </div>
         </div>
       )}
       {!canRequest && !canDecide && (
         <p className="text-xs text-ink-400">
-          {state === "in-review" ? "A reviewer decides this revision." : state === "approved" ? "Approved; a change needs a new revision." : "The designer asks for review when ready."}
+          {state === "awaiting-signoff" ? "A reviewer signs this revision off or returns it." : state === "signed-off" ? "Signed off; a change needs a new revision." : "The designer submits it for sign-off when ready."}
         </p>
       )}
       {act.isError && <Alert tone="error">{act.error.message}</Alert>}
