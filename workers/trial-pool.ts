@@ -18,7 +18,7 @@ import { costBoundedChunkSize, driveRun, validateChunkSize, type ChunkTask } fro
 import type { Netlist } from "../shared/engine/netlist";
 import type { RunResult } from "../shared/engine/result";
 import type { RunOptions } from "../shared/engine/run-options";
-import { shapeRun } from "../shared/engine/run-plan";
+import { shapeRun, trialCost } from "../shared/engine/run-plan";
 import { createLogger, type Logger } from "../server/logger";
 import { createFairGate } from "./fair-gate";
 import { deserializeEngineError } from "../shared/engine/task-errors";
@@ -147,7 +147,7 @@ export function createTrialPool(options: TrialPoolOptions = {}): TrialPool {
       // the largest runs) is built by the workers, never on this thread, which answers requests.
       const plan = shapeRun(netlist, limits, runOptions);
       const base = { netlist, limits, options: runOptions };
-      const share = { key: randomUUID(), perTrialCost: plan.options.corners.length * plan.points * plan.parts };
+      const share = { key: randomUUID(), perTrialCost: trialCost(plan) };
       const local = new AbortController();
       setMaxListeners(0, local.signal); // one listener per queued chunk task
       const abort = () => local.abort();

@@ -126,8 +126,7 @@ export function runsRoutes(ctx: AppContext): ApiRouter {
     access: "signed-in",
     handler: async ({ req, res }) => {
       const run = await findRun(ctx, String(req.params.id));
-      const trials = trialCountOf(run, { trials: run.state === "done" ? run.trialsDone : undefined });
-      const slices = await planTrialsCsv(ctx, run, trials);
+      const csv = await planTrialsCsv(ctx, run, trialCountOf(run));
       requireDone(run);
       const exp = await exportSignal(ctx, (abort) => res.once("close", abort));
       try {
@@ -135,7 +134,7 @@ export function runsRoutes(ctx: AppContext): ApiRouter {
         res.set("Content-Type", "text/csv; charset=utf-8");
         res.set("Content-Disposition", `attachment; filename="lotwise-run-${run.id.slice(0, 8)}-trials.csv"`);
         res.write(trialsCsvHeader(run));
-        for await (const text of trialsCsvRows(ctx, run, trials, slices, exp.signal)) {
+        for await (const text of trialsCsvRows(ctx, run, csv, exp.signal)) {
           if (!res.write(text)) await drained(res, exp.signal);
         }
         res.end();
@@ -165,7 +164,7 @@ export function runsRoutes(ctx: AppContext): ApiRouter {
     access: "signed-in",
     handler: async ({ req, res }) => {
       const run = await findRun(ctx, String(req.params.id));
-      const index = checkTrialIndex(String(req.params.index), trialCountOf(run, run.state === "done" ? { trials: run.trialsDone } : null));
+      const index = checkTrialIndex(String(req.params.index), trialCountOf(run));
       requireDone(run);
       const text = await withExportSignal(res, (signal) => runTouchstone(ctx, run, index, signal));
       sendS2p(res, `lotwise-run-${run.id.slice(0, 8)}-trial-${index}.s2p`, text);
@@ -176,7 +175,7 @@ export function runsRoutes(ctx: AppContext): ApiRouter {
     access: "signed-in",
     handler: async ({ req, res }) => {
       const run = await findRun(ctx, String(req.params.id));
-      const index = checkTrialIndex(String(req.params.index), trialCountOf(run, run.state === "done" ? { trials: run.trialsDone } : null));
+      const index = checkTrialIndex(String(req.params.index), trialCountOf(run));
       requireDone(run);
       res.json(await withExportSignal(res, (signal) => trialReplay(ctx, run, index, signal)));
     },

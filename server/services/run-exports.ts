@@ -12,10 +12,9 @@ import type { AppContext } from "../context";
 import type { Run } from "../entities";
 import { AppError } from "../errors";
 import type { RunOptions } from "../../shared/engine/run-options";
-import { shapeRun } from "../../shared/engine/run-plan";
+import { shapeRun, trialCost } from "../../shared/engine/run-plan";
 import { ruleName, type RunInputs } from "../../shared/formats/run-exports";
-import { computeCost } from "../../shared/schemas/settings";
-import { checkExportCost, runLimits, shapeCost } from "./run-limits";
+import { checkExportCost, runLimits } from "./run-limits";
 
 export { csvNumber } from "../../shared/formats/run-exports";
 
@@ -26,9 +25,14 @@ const CSV_SLICE_COST = 2e6;
 
 const inputsOf = (run: Run): RunInputs => ({ netlist: run.netlist, limits: run.limits, options: run.options as unknown as RunOptions });
 
-/** Trials a run has (or will have): the result's count when done, else the requested total. */
-export function trialCountOf(run: Run, result: { trials?: unknown } | null): number {
-  return typeof result?.trials === "number" ? result.trials : run.trialsTotal;
+/** Trials a run has (or will have): the count stored when it finished (stop when sure may end early), else the requested total. */
+export function trialCountOf(run: Run): number {
+  return run.state === "done" ? run.trialsDone : run.trialsTotal;
+}
+
+/** The run's shape (validated, not solved: cheap on the request thread) covering `trials`; what prices its exports. */
+function shapeOfRun(run: Run, trials: number) {
+  return shapeRun(run.netlist, run.limits, { ...(run.options as unknown as RunOptions), trials: Math.max(trials, 1) });
 }
 
 /** Checks a trial index against the run. @throws AppError 400 naming `index` */
@@ -58,7 +62,7 @@ export async function exportSignal(ctx: AppContext, onGone: (abort: () => void) 
 
 /** GET /api/runs/:id/trials/:index body: one trial replayed exactly from the seed (on the export thread). */
 export async function trialReplay(ctx: AppContext, run: Run, index: number, signal: AbortSignal) {
-  const cost = computeCost({ trials: 1, corners: ((run.options as { corners?: unknown[] }).corners ?? [25]).length, points: 1, parts: run.netlist.parts.length });
+  const cost = trialCost(shapeOfRun(run, index + 1));
   return ctx.exportPool.run(randomUUID(), cost, { kind: "replay", run: inputsOf(run), index }, signal);
 }
 
@@ -96,31 +100,38 @@ export function trialsCsvHeader(run: Run): string {
 
 /**
  * Checks a trials export before anything is written: at most MAX_CSV_TRIALS trials and within the export cost limit.
- * Returns the slices to compute.
+ * Returns the slices to compute and what one trial costs.
  * @throws AppError 400 naming `trials`
  */
-export async function planTrialsCsv(ctx: AppContext, run: Run, trials: number): Promise<{ start: number; count: number }[]> {
+export async function planTrialsCsv(ctx: AppContext, run: Run, trials: number): Promise<CsvPlan> {
   if (trials > MAX_CSV_TRIALS) {
     throw new AppError("INVALID_INPUT", `A trials export holds at most ${MAX_CSV_TRIALS} trials; this run has ${trials}.`, { fields: { trials: `at most ${MAX_CSV_TRIALS}` } });
   }
   // The shape (validated, not solved) is enough to price the export; the export thread builds the plan.
-  const shape = shapeRun(run.netlist, run.limits, { ...(run.options as unknown as RunOptions), trials: Math.max(trials, 1) });
+  const shape = shapeOfRun(run, trials);
   checkExportCost(shape, trials, await runLimits(ctx));
-  const perTrial = computeCost({ ...shapeCost(shape), trials: 1 });
+  const perTrial = trialCost(shape);
   const step = Math.max(1, Math.min(1000, Math.floor(CSV_SLICE_COST / perTrial)));
   const slices: { start: number; count: number }[] = [];
   for (let start = 0; start < trials; start += step) slices.push({ start, count: Math.min(step, trials - start) });
-  return slices;
+  return { trials, slices, perTrial };
+}
+
+/** A checked trials export: the slices to compute, each one export-thread task. */
+export interface CsvPlan {
+  trials: number;
+  slices: { start: number; count: number }[];
+  /** part evaluations of one trial (the fair gate's cost of a slice) */
+  perTrial: number;
 }
 
 /**
  * The rows of a trials export, slice by slice, computed on the export thread one slice ahead of the writer.
  * Stops (rejecting with the signal's reason) when the signal aborts.
  */
-export async function* trialsCsvRows(ctx: AppContext, run: Run, trials: number, slices: { start: number; count: number }[], signal: AbortSignal): AsyncGenerator<string> {
+export async function* trialsCsvRows(ctx: AppContext, run: Run, { trials, slices, perTrial }: CsvPlan, signal: AbortSignal): AsyncGenerator<string> {
   const key = randomUUID();
   const inputs = inputsOf(run);
-  const perTrial = computeCost({ trials: 1, corners: ((run.options as { corners?: unknown[] }).corners ?? [25]).length, points: 1, parts: run.netlist.parts.length });
   const compute = (s: { start: number; count: number }) => ctx.exportPool.run<string>(key, s.count * perTrial, { kind: "csv", run: inputs, trials: Math.max(trials, 1), start: s.start, count: s.count }, signal);
   try {
     let ahead: Promise<string> | null = slices.length ? compute(slices[0]) : null;

@@ -11,7 +11,7 @@ import { EngineError } from "../../shared/engine/errors";
 import type { Netlist, Part } from "../../shared/engine/netlist";
 import type { RunOptions } from "../../shared/engine/run-options";
 import { shapeRun } from "../../shared/engine/run-plan";
-import { checkRunCost, runLimits, type CostShape } from "./run-limits";
+import { checkRunCost, runLimits, shapeCost, type CostShape } from "./run-limits";
 import { MAX_API_SEED, type CreateRunInput } from "../../shared/schemas/run-request";
 
 let lastQueuedMs = 0;
@@ -73,8 +73,7 @@ export function bomCostOf(netlist: Netlist, grades: Grade[]): number {
  */
 function checkRunInputs(netlist: Netlist, limits: unknown, options: RunOptions): CostShape {
   try {
-    const shape = shapeRun(netlist, limits, options);
-    return { trials: shape.options.trials, corners: shape.options.corners.length, points: shape.points, parts: shape.parts };
+    return shapeCost(shapeRun(netlist, limits, options));
   } catch (err) {
     if (!(err instanceof EngineError)) throw err;
     const where = err.code === "INVALID_NETLIST" ? "netlist" : err.code === "INVALID_LIMITS" ? "limits" : "";
@@ -90,7 +89,7 @@ function checkRunInputs(netlist: Netlist, limits: unknown, options: RunOptions):
 export async function createRun(ctx: AppContext, user: { id: string; name: string }, input: CreateRunInput, owned: { sweepId?: string } = {}): Promise<Run> {
   const limitSet = await ctx.dataSource.getRepository(LimitSet).findOneBy({ id: input.limitSetId });
   const grades = await ctx.dataSource.getRepository(Grade).find();
-  const limits = await runLimits(ctx);
+  const computeLimits = await runLimits(ctx);
   // The revision is read under its row lock, in the transaction that locks it and stores the run: an edit of the
   // revision (which takes the same lock) is either before (the run copies the new values) or refused after.
   // Taking the exclusive lock first also keeps two launches from deadlocking on the run insert's foreign-key check.
@@ -106,7 +105,7 @@ export async function createRun(ctx: AppContext, user: { id: string; name: strin
     if (revision.sweep && typeof revision.sweep === "object") options.sweep = { ...revision.sweep };
     if (input.corners) options.corners = input.corners.slice();
     if (input.targetHalfWidth !== undefined) options.targetHalfWidth = input.targetHalfWidth;
-    checkRunCost(checkRunInputs(netlist, limitSet.limits, options), limits);
+    checkRunCost(checkRunInputs(netlist, limitSet.limits, options), computeLimits);
 
     const run = m.getRepository(Run).create({
       id: randomUUID(),

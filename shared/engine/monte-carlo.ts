@@ -19,7 +19,7 @@ import type { Netlist } from "./netlist";
 import { createTrialStream, type RunSeed } from "./random";
 import { finalizeRun, type RunResult } from "./result";
 import type { RunOptions } from "./run-options";
-import { planRun, type RunPlan, type RunShape } from "./run-plan";
+import { planRun, trialCost, type RunPlan, type RunShape } from "./run-plan";
 import { evaluateMargins, evaluateMarginsDb, fillMagnitudeDb, magDb } from "./rules";
 import { sampleTrial } from "./sampling";
 import { sParamDeg } from "./solver";
@@ -248,8 +248,7 @@ export const CHUNK_COST_BUDGET = 3e6;
 
 /** The chunk size for a run: `chunkSize`, or fewer trials when a chunk would cost more than CHUNK_COST_BUDGET (at least 1). */
 export function costBoundedChunkSize(run: RunShape, chunkSize: number): number {
-  const perTrial = run.options.corners.length * run.points * run.parts;
-  return Math.max(1, Math.min(chunkSize, Math.floor(CHUNK_COST_BUDGET / Math.max(1, perTrial))));
+  return Math.max(1, Math.min(chunkSize, Math.floor(CHUNK_COST_BUDGET / Math.max(1, trialCost(run)))));
 }
 
 /** Checks a chunk size (integer 1..1e6), default 2500. @throws EngineError INVALID_INPUT */

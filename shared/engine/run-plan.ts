@@ -119,6 +119,11 @@ function checkInputs(netlist: Netlist, limits: unknown, options: unknown) {
   return { compiled, compiledRules, resolved, grid, sampling };
 }
 
+/** Part evaluations one trial costs: corners × grid points × parts (what chunk sizes and compute limits count). */
+export function trialCost(shape: RunShape): number {
+  return shape.options.corners.length * shape.points * shape.parts;
+}
+
 /** The shape of a planned run. */
 export function shapeOf(plan: RunPlan): RunShape {
   return { options: plan.options, points: plan.grid.freqs.length, parts: plan.sampling.partCount };

@@ -220,7 +220,8 @@ describe("compute limits (fault 3)", () => {
     } finally {
       await put(admin.agent, "/api/settings/compute-limits").send(limits).expect(200);
     }
-    // one trial of 10 corners × 10,003 points × 200 parts is over the per-trial limit, however few trials: named by corners
+    // [C] one trial of 10 corners × 10,002 grid points (10,001 sweep points + the 5 MHz band edge) × 200 parts = 2.0004e7
+    // part evaluations, over the per-trial limit (3e6, the default in shared/schemas/settings.ts) however few trials: named by corners
     const perTrial = await post(analyst.agent, "/api/runs").send({ revisionId: f.revision.id, limitSetId: f.limitSet.id, trials: 5, corners: [-40, -25, -10, 0, 10, 25, 40, 55, 70, 85] }).expect(400);
     expect(perTrial.body.error.fields.corners).toMatch(/one trial of this run would cost 2\.00e7 .* the limit per trial is 3\.00e6/);
     const oneCorner = await post(analyst.agent, "/api/runs").send({ revisionId: f.revision.id, limitSetId: f.limitSet.id, trials: 5 }).expect(201); // 200 × 10,002 ≈ 2.0e6
