@@ -2,8 +2,8 @@ import { ARTIFACTS, startE2e, signedInPage, type E2e } from "../helpers/browser"
 import { ORIGIN } from "../helpers/test-context";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
-// The reviewer's main task in Chromium: find a finished run in the history, comment on it, approve its revision.
-// The run and the review request are made through the API first (as an analyst and a designer would).
+// The reviewer's main task in Chromium: find a finished run in the history, comment on it, sign its revision off.
+// The run and the submission for sign-off are made through the API first (as an analyst and a designer would).
 
 let e: E2e;
 let runId: string;
@@ -32,7 +32,7 @@ afterAll(async () => {
 });
 
 describe("reviewer in the browser", () => {
-  it("finds the run in the history, comments and approves the revision", async () => {
+  it("finds the run in the history, comments and signs the revision off", async () => {
     const page = await signedInPage(e, "reviewer");
     await page.getByRole("link", { name: "Runs", exact: true }).click();
     const table = page.getByRole("table", { name: "Run history" });
@@ -57,7 +57,7 @@ describe("reviewer in the browser", () => {
 
     await page.getByLabel("Note with the decision (optional)").fill("Signed off for the first lot.");
     await page.getByRole("button", { name: "Sign off revision" }).click();
-    await page.getByRole("list", { name: "Review trail" }).getByText("signed off", { exact: true }).waitFor();
+    await page.getByRole("list", { name: "Sign-off trail" }).getByText("signed off", { exact: true }).waitFor();
     expect(await page.getByRole("button", { name: "Sign off revision" }).count()).toBe(0);
     // the review speaks our own words: none of the code-hosting review wording is left on the page
     expect(await page.locator("body").innerText()).not.toMatch(/Approve|Request changes|changes requested|in review/);

@@ -26,7 +26,7 @@ export function RevisionBar({ designId, revisions, current }: { designId: string
         </select>
       </label>
       <Badge tone={REVIEW_STATE_TONE[current.reviewState]}>{current.reviewState}</Badge>
-      {current.locked && <Badge tone="signal">{current.reviewState === "draft" ? "locked by a run" : "frozen by its review"}</Badge>}
+      {current.locked && <Badge tone="signal">{current.reviewState === "draft" ? "locked by a run" : "frozen for sign-off"}</Badge>}
       <span className="text-xs text-ink-300">
         by {current.createdBy.name}, {formatDateTime(current.createdAt)}
       </span>

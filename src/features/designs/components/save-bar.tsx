@@ -61,7 +61,7 @@ export function SaveBar({ editor, revision, canEdit }: { editor: PartsEditor; re
       {!canEdit && <p className="text-xs text-ink-300">Only a designer can save parts.</p>}
       {revision.locked && (
         <p className="text-xs text-signal-300">
-          {revision.reviewState === "draft" ? `A run uses r${revision.number}` : `r${revision.number} has been sent for review`}, so it is kept as it is; changes go into a new revision made from it.
+          {revision.reviewState === "draft" ? `A run uses r${revision.number}` : `r${revision.number} has been submitted for sign-off`}, so it is kept as it is; changes go into a new revision made from it.
         </p>
       )}
       {errorCount > 0 && <p className="text-xs text-fault-300">Fix the marked cells to save.</p>}

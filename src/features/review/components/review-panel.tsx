@@ -25,7 +25,7 @@ export function ReviewPanel({ revisionId, revisionNumber, roles }: { revisionId:
         Revision {revisionNumber === null ? "" : `r${revisionNumber} `}is <ReviewStateBadge state={state} />
       </p>
       {review.data.events.length > 0 && (
-        <ol className="flex flex-col gap-1.5 border-l border-ink-700 pl-4 text-sm" aria-label="Review trail">
+        <ol className="flex flex-col gap-1.5 border-l border-ink-700 pl-4 text-sm" aria-label="Sign-off trail">
           {review.data.events.map((e) => (
             <li key={e.id}>
               <span className="font-semibold text-paper-100">{e.actor.name}</span>{" "}

@@ -74,8 +74,8 @@ function RunPage({ runId }: { runId: string }) {
               <CommentsPanel runId={run.id} />
             </RegionBoundary>
           </Card>
-          <Card title="Review">
-            <RegionBoundary region="The review">
+          <Card title="Sign-off">
+            <RegionBoundary region="The sign-off">
               <ReviewPanel revisionId={run.revisionId} revisionNumber={run.revisionNumber} roles={user.roles} />
             </RegionBoundary>
           </Card>
